@@ -1,0 +1,48 @@
+import { z } from 'zod';
+
+/**
+ * The process environment, parsed once with zod. Mirrored by `.env.example`.
+ * `npm start` and `npm test` fill in the database settings of the private
+ * MariaDB they start; a hosted deployment sets them itself.
+ */
+const EnvSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  DB_HOST: z.string().default('127.0.0.1'),
+  DB_PORT: z.coerce.number().int().positive().default(3317),
+  DB_NAME: z.string().min(1).default('trialbed'),
+  DB_USER: z.string().min(1).default('trialbed'),
+  DB_PASSWORD: z.string().default(''),
+  /** Read replicas for SELECTs, comma-separated host:port (see README, "Growing past one machine"). */
+  DB_READ_REPLICAS: z.string().default(''),
+  DB_POOL_MAX: z.coerce.number().int().positive().default(10),
+  DATA_DIR: z.string().default('.data'),
+  AUTH_URL: z.string().url().default('http://localhost:3000'),
+  TRIALBED_DEMO: z.enum(['0', '1']).default('0'),
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().positive().default(2525),
+  SMTP_USER: z.string().default(''),
+  SMTP_PASSWORD: z.string().default(''),
+  SMTP_SECURE: z.enum(['0', '1']).default('0'),
+  MAIL_FROM: z.string().default('Trialbed <no-reply@trialbed.invalid>'),
+});
+
+export type Env = z.infer<typeof EnvSchema>;
+
+let cached: Env | null = null;
+
+/** Returns the validated environment; throws with every bad field named. */
+export function getEnv(): Env {
+  if (cached) return cached;
+  const parsed = EnvSchema.safeParse(process.env);
+  if (!parsed.success) {
+    const fields = parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ');
+    throw new Error(`Invalid environment: ${fields}`);
+  }
+  cached = parsed.data;
+  return cached;
+}
+
+/** True when the invented demo scenario and its sign-in shortcuts are on. */
+export function isDemoMode(): boolean {
+  return getEnv().TRIALBED_DEMO === '1';
+}
