@@ -1,0 +1,21 @@
+import http from 'node:http';
+import path from 'node:path';
+import next from 'next';
+
+/**
+ * The real Next.js request handler of the built app (`next build` runs first in
+ * `npm test`), wrapped in a Node HTTP server for supertest.
+ */
+export async function startNextHandler(): Promise<{ server: http.Server; close: () => Promise<void> }> {
+  const app = next({ dev: false, dir: path.resolve(__dirname, '../..'), hostname: 'localhost', quiet: true });
+  await app.prepare();
+  const handle = app.getRequestHandler();
+  const server = http.createServer((req, res) => handle(req, res));
+  return {
+    server,
+    close: async () => {
+      await new Promise<void>((r) => server.close(() => r()));
+      await app.close?.();
+    },
+  };
+}
