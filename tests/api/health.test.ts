@@ -3,15 +3,14 @@ import os from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-// @ts-expect-error plain ESM module without types
-import { ensureDatabase, freePort, startMariaDB } from '../../db/server/mariadb.mjs';
+import { ensureDatabase, freePort, startMariaDB, type MariaDBServer } from "../../db/server/mariadb.mjs";
 import { startNextHandler } from '../support/next-app';
 
 // /api/health through the real Next.js handler, against a MariaDB of its own
 // that this test stops half-way (the shared test database stays up).
 describe('GET /api/health', () => {
   let dir: string;
-  let db: { stop: () => Promise<void> };
+  let db: MariaDBServer;
   let app: Awaited<ReturnType<typeof startNextHandler>>;
 
   beforeAll(async () => {
