@@ -1,0 +1,281 @@
+import 'server-only';
+import { UniqueConstraintError } from 'sequelize';
+import { sequelize } from '../index';
+import {
+  AppMeta,
+  CheckIn,
+  Feedstock,
+  FeedstockAlias,
+  FeedstockRequest,
+  FeedstockRevision,
+  Proposal,
+  ProposalTrial,
+  PublishedVerdict,
+  Trial,
+  User,
+  VerdictHistory,
+  Vote,
+} from '../models';
+import { normaliseDose } from '@/lib/evidence/normalise';
+import type { DoseQuantity } from '@/lib/evidence/types';
+import { recomputeFeedstock } from '@/lib/services/evidence';
+import {
+  DEMO_FEEDSTOCKS,
+  DEMO_PEOPLE,
+  DEMO_PROPOSALS,
+  DEMO_REQUESTS,
+  DEMO_SITES,
+  DEMO_TRIALS,
+} from './demo-scenario';
+
+/** The app_meta key that records that the demo scenario is in this database. */
+export const DEMO_MARKER = 'demo_loaded_at';
+
+/** When the demo's published verdicts are dated (before any demo proposal). */
+const DEMO_PUBLISHED_AT = new Date('2026-01-15T09:00:00Z');
+
+/**
+ * Loads the invented demo scenario once. Everything is written in one
+ * transaction that starts by inserting the marker row, so a second run (or a
+ * concurrent one) adds nothing. Returns what was added.
+ */
+export async function loadDemoScenario(): Promise<{ loaded: boolean; counts: Record<string, number> }> {
+  if (await AppMeta.findByPk(DEMO_MARKER)) return { loaded: false, counts: {} };
+  try {
+    return await sequelize.transaction(async (transaction) => {
+      // The marker goes first: a concurrent loader blocks on it, then fails on the duplicate key.
+      await AppMeta.create({ key: DEMO_MARKER, value: new Date().toISOString() }, { transaction });
+
+      const people = new Map<string, User>();
+      for (const p of DEMO_PEOPLE) {
+        const u = await User.create(
+          {
+            name: p.name,
+            email: p.email,
+            emailVerified: new Date(p.joinedAt),
+            role: p.role,
+            region: p.region,
+            licenceAcceptedAt: p.role === 'reader' ? null : new Date(p.joinedAt),
+            isDemo: true,
+            createdAt: new Date(p.joinedAt),
+          },
+          { transaction },
+        );
+        people.set(p.key, u);
+      }
+      const editor = [...people.values()].find((u) => u.role === 'editor') ?? null;
+      const moderator = [...people.values()].find((u) => u.role === 'moderator') ?? null;
+
+      const feedstocks = new Map<string, Feedstock>();
+      for (const f of DEMO_FEEDSTOCKS) {
+        const row = await Feedstock.create(
+          {
+            slug: f.slug,
+            name: f.name,
+            category: f.category,
+            family: f.family,
+            cnRatio: f.cnRatio,
+            nitrogenPct: f.nitrogenPct,
+            moisturePct: f.moisturePct,
+            bulkDensityKgM3: f.bulkDensityKgM3,
+            referenceSource: f.referenceSource,
+            summary: f.summary,
+            pageText: f.pageText,
+            handlingCautions: f.handlingCautions,
+            isDemo: true,
+          },
+          { transaction },
+        );
+        feedstocks.set(f.slug, row);
+        if (f.aliases.length) {
+          await FeedstockAlias.bulkCreate(
+            f.aliases.map((alias) => ({ feedstockId: row.id, alias })),
+            { transaction },
+          );
+        }
+        await FeedstockRevision.create(
+          {
+            feedstockId: row.id,
+            authorId: editor?.id ?? null,
+            body: f.pageText,
+            editSummary: 'First version of the page',
+            status: 'published',
+            baseVersion: 0,
+            reviewerId: editor?.id ?? null,
+            reviewedAt: DEMO_PUBLISHED_AT,
+            createdAt: DEMO_PUBLISHED_AT,
+          },
+          { transaction },
+        );
+        for (const pv of f.published) {
+          await PublishedVerdict.create(
+            {
+              feedstockId: row.id,
+              setting: pv.setting,
+              verdict: pv.verdict,
+              ceilingKgM2: pv.ceilingKgM2,
+              cautions: pv.cautions,
+              proposalId: null,
+              publishedAt: DEMO_PUBLISHED_AT,
+            },
+            { transaction },
+          );
+          await VerdictHistory.create(
+            {
+              feedstockId: row.id,
+              setting: pv.setting,
+              previousVerdict: null,
+              verdict: pv.verdict,
+              ceilingKgM2: pv.ceilingKgM2,
+              cautions: pv.cautions,
+              proposalId: null,
+              decidedBy: moderator?.id ?? null,
+              note: 'Starting verdict carried over from the network’s paper feeding notes.',
+              decidedAt: DEMO_PUBLISHED_AT,
+            },
+            { transaction },
+          );
+        }
+      }
+
+      const sites = new Map(DEMO_SITES.map((s) => [s.key, s]));
+      const trials = new Map<string, Trial>();
+      let checkInCount = 0;
+      for (const t of DEMO_TRIALS) {
+        const feedstock = feedstocks.get(t.feedstockSlug);
+        const owner = people.get(t.ownerKey);
+        if (!feedstock || !owner) throw new Error(`demo trial ${t.key}: unknown feedstock or owner`);
+        const loads = normaliseDose({
+          dose: t.dose as DoseQuantity,
+          area: { amount: t.surfaceAreaM2, unit: 'm2' },
+          bulkDensityKgM3: feedstock.bulkDensityKgM3,
+          layerDepth: t.layerDepthCm === null ? null : { amount: t.layerDepthCm, unit: 'cm' },
+          wormMass: t.wormMassKg === null ? null : { amount: t.wormMassKg, unit: 'kg' },
+        });
+        const lastCheckIn = t.checkIns.at(-1);
+        const row = await Trial.create(
+          {
+            feedstockId: feedstock.id,
+            ownerId: owner.id,
+            setting: t.setting,
+            preparation: t.preparation,
+            provenance: t.provenance,
+            surfaceAreaM2: t.surfaceAreaM2,
+            bedDepthCm: t.bedDepthCm,
+            species: t.species,
+            wormMassKg: t.wormMassKg,
+            doseAmount: t.dose.amount,
+            doseUnit: t.dose.unit,
+            doseKg: loads.massKg,
+            surfaceLoadKgM2: loads.surfaceLoadKgM2,
+            layerDepthCm: loads.layerDepthCm,
+            feedRatio: loads.feedRatio,
+            isControl: t.isControl,
+            region: sites.get(t.siteKey)?.region ?? owner.region ?? 'Unspecified region',
+            startDate: t.startDate,
+            checkInEveryDays: t.checkInEveryDays,
+            status: t.status,
+            confirmedOutcome: t.status === 'closed' ? t.confirmedOutcome : null,
+            closeReason: t.closeReason,
+            closedAt: t.status === 'running' || !lastCheckIn ? null : new Date(`${lastCheckIn.date}T18:00:00Z`),
+            notes: t.notes,
+            isDemo: true,
+            createdAt: new Date(`${t.startDate}T08:00:00Z`),
+          },
+          { transaction },
+        );
+        trials.set(t.key, row);
+        if (t.checkIns.length) {
+          await CheckIn.bulkCreate(
+            t.checkIns.map((c) => ({
+              trialId: row.id,
+              authorId: owner.id,
+              observedOn: c.date,
+              utcOffsetMinutes: 0,
+              wormActivity: c.wormActivity,
+              shareRemainingPct: c.shareRemainingPct,
+              bedTempC: c.bedTempC,
+              mould: c.mould,
+              smell: c.smell,
+              moisture: c.moisture,
+              ph: c.pH,
+              pests: c.pests,
+              wormDeaths: c.wormDeaths,
+              exodus: c.exodus,
+              notes: c.notes,
+              createdAt: new Date(`${c.date}T18:00:00Z`),
+            })),
+            { transaction },
+          );
+          checkInCount += t.checkIns.length;
+        }
+      }
+      for (const t of DEMO_TRIALS) {
+        if (!t.pairedTrialKey) continue;
+        const paired = trials.get(t.pairedTrialKey);
+        if (!paired) throw new Error(`demo trial ${t.key}: unknown paired trial ${t.pairedTrialKey}`);
+        await trials.get(t.key)!.update({ pairedTrialId: paired.id }, { transaction });
+      }
+
+      let voteCount = 0;
+      for (const p of DEMO_PROPOSALS) {
+        const feedstock = feedstocks.get(p.feedstockSlug)!;
+        const proposal = await Proposal.create(
+          {
+            feedstockId: feedstock.id,
+            authorId: people.get(p.authorKey)!.id,
+            baseVerdictVersion: feedstock.verdictVersion,
+            settings: p.settings,
+            rationale: p.rationale,
+            isDemo: true,
+            createdAt: new Date(p.createdAt),
+          },
+          { transaction },
+        );
+        await ProposalTrial.bulkCreate(
+          p.trialKeys.map((k) => ({ proposalId: proposal.id, trialId: trials.get(k)!.id })),
+          { transaction },
+        );
+        for (const v of p.votes) {
+          await Vote.create(
+            { proposalId: proposal.id, voterId: people.get(v.voterKey)!.id, agree: v.agree, reason: v.reason },
+            { transaction },
+          );
+          voteCount += 1;
+        }
+      }
+
+      for (const r of DEMO_REQUESTS) {
+        await FeedstockRequest.create(
+          {
+            name: r.name,
+            note: r.note,
+            requesterId: r.requesterKey ? people.get(r.requesterKey)!.id : null,
+            isDemo: true,
+            createdAt: new Date(r.createdAt),
+          },
+          { transaction },
+        );
+      }
+
+      for (const f of feedstocks.values()) await recomputeFeedstock(f.id, transaction);
+
+      return {
+        loaded: true,
+        counts: {
+          people: people.size,
+          feedstocks: feedstocks.size,
+          trials: trials.size,
+          checkIns: checkInCount,
+          proposals: DEMO_PROPOSALS.length,
+          votes: voteCount,
+          requests: DEMO_REQUESTS.length,
+        },
+      };
+    });
+  } catch (err) {
+    // Another loader committed the marker first: the demo is there, nothing to add.
+    if (err instanceof UniqueConstraintError) return { loaded: false, counts: {} };
+    throw err;
+  }
+}
