@@ -43,7 +43,10 @@ export function SearchBox({
       htmlFor={inputId}
       className={
         isHero
-          ? 'block font-display text-3xl text-ink sm:text-4xl'
+          ? cx(
+              'block font-display text-ink',
+              labelAsHeading ? 'text-3xl sm:text-4xl' : 'text-xl sm:text-2xl',
+            )
           : 'sr-only'
       }
     >
@@ -81,7 +84,9 @@ export function SearchBox({
           type="submit"
           className={cx(
             'inline-flex shrink-0 items-center justify-center gap-2 bg-accent font-semibold text-accent-ink hover:bg-accent-strong',
-            isHero ? 'min-h-14 rounded-lg px-5 text-lg' : 'min-h-touch min-w-touch rounded-r-md px-3',
+            isHero
+              ? 'min-h-14 min-w-14 rounded-lg px-4 text-lg sm:px-5'
+              : 'min-h-touch min-w-touch rounded-r-md px-3',
           )}
         >
           <svg
@@ -98,7 +103,8 @@ export function SearchBox({
             <circle cx="8.5" cy="8.5" r="5.5" />
             <path d="m12.5 12.5 4.5 4.5" />
           </svg>
-          <span className={isHero ? '' : 'sr-only'}>Search</span>
+          {/* Icon-only below 640 px so the input keeps its width on a phone. */}
+          <span className={isHero ? 'sr-only sm:not-sr-only' : 'sr-only'}>Search</span>
         </button>
       </div>
     </form>

@@ -1,0 +1,39 @@
+import type { Metadata, Viewport } from 'next';
+import type { ReactNode } from 'react';
+import { bodyFont, headingFont } from '@/fonts';
+import { SiteFooter } from '@/components/layout/site-footer';
+import { SiteHeader } from '@/components/layout/site-header';
+import { SkipLink } from '@/components/layout/skip-link';
+import './globals.css';
+
+export const metadata: Metadata = {
+  title: {
+    default: 'Trialbed — can my worms eat this?',
+    template: '%s · Trialbed',
+  },
+  description:
+    'Can composting worms eat it — how much at once, prepared how, and what to watch for. Verdicts for worm bins, flow-through systems and open beds, worked out from feeding trials that keepers log.',
+  applicationName: 'Trialbed',
+  icons: { icon: [{ url: '/trialbed-mark.svg', type: 'image/svg+xml' }] },
+};
+
+export const viewport: Viewport = {
+  themeColor: '#FFFDF8',
+  width: 'device-width',
+  initialScale: 1,
+};
+
+export default function RootLayout({ children }: { children: ReactNode }) {
+  return (
+    <html lang="en" className={`${bodyFont.variable} ${headingFont.variable}`}>
+      <body className="flex min-h-dvh flex-col">
+        <SkipLink />
+        <SiteHeader />
+        <main id="main" tabIndex={-1} className="mx-auto w-full max-w-page flex-1 px-4 py-8 focus:outline-none">
+          {children}
+        </main>
+        <SiteFooter />
+      </body>
+    </html>
+  );
+}

@@ -1,0 +1,87 @@
+import Link from 'next/link';
+import { SearchBox } from '@/components/search/search-box';
+import {
+  RecentDecisions,
+  TrialsNeedingCheckIns,
+  type RecentDecision,
+  type TrialNeedingCheckIn,
+} from '@/components/layout/home-sections';
+import { VerdictLegend } from '@/components/layout/verdict-legend';
+import { SETTINGS, SETTING_DESCRIPTIONS, SETTING_LABELS } from '@/components/layout/vocabulary';
+
+export default function HomePage() {
+  // SLOT: recent verdict decisions — to be filled from lib/queries (decided
+  // proposals, newest first). Empty until then; never sample data.
+  const recentDecisions: RecentDecision[] = [];
+  // SLOT: trials needing check-ins — the signed-in contributor's own trials
+  // whose next check-in is due. Empty (and to be hidden for anonymous
+  // readers) until the session and queries exist.
+  const trialsNeedingCheckIns: TrialNeedingCheckIn[] = [];
+
+  return (
+    <div className="space-y-14">
+      <section className="rounded-xl border border-line bg-surface-raised px-4 py-8 sm:px-8 sm:py-10">
+        <SearchBox variant="hero" labelAsHeading />
+        <p className="mt-4 max-w-prose text-lg text-ink-muted">
+          How much at once, prepared how, and what to watch for — for enclosed bins, flow-through
+          systems and open beds, worked out from feeding trials that worm keepers log.
+        </p>
+      </section>
+
+      <section aria-labelledby="verdicts-heading" className="space-y-4">
+        <h2 id="verdicts-heading" className="text-2xl">
+          Five verdicts
+        </h2>
+        <p className="max-w-prose">
+          Every feedstock gets one verdict per setting. Each verdict has its own symbol and words,
+          so it reads the same in black and white.
+        </p>
+        <VerdictLegend />
+      </section>
+
+      <section aria-labelledby="settings-heading" className="space-y-4">
+        <h2 id="settings-heading" className="text-2xl">
+          Three settings
+        </h2>
+        <p className="max-w-prose">
+          The same dose can be harmless in one setup and deadly in another, so verdicts are given
+          separately for each.
+        </p>
+        <dl className="grid gap-3 md:grid-cols-3">
+          {SETTINGS.map((setting) => (
+            <div key={setting} className="rounded-lg border border-line bg-surface-raised p-4">
+              <dt className="font-display text-lg">{SETTING_LABELS[setting]}</dt>
+              <dd className="m-0 mt-1">{SETTING_DESCRIPTIONS[setting]}</dd>
+            </div>
+          ))}
+        </dl>
+      </section>
+
+      <section aria-labelledby="how-heading" className="space-y-4">
+        <h2 id="how-heading" className="text-2xl">
+          How a verdict is made
+        </h2>
+        <p className="max-w-prose">
+          Keepers run <strong>trials</strong>: a measured amount of one feedstock in a bed, checked
+          every week or two for worm activity, leftovers, heat, mould, smell and pests. The server
+          combines those trials into an <strong>evidence verdict</strong> for each setting and
+          preparation, with a dose ceiling, a list of cautions, a certainty grade and the working
+          behind it. A contributor who thinks the published verdict should change writes a{' '}
+          <strong>proposal</strong> citing trials, and other contributors <strong>vote</strong> on
+          it with a reason. Votes alone never publish anything: a <strong>moderator</strong> reads
+          the proposal and the evidence and decides, with a written note.
+        </p>
+        <p className="max-w-prose">
+          <Link href="/about">More about verdicts and certainty</Link>
+          {' · '}
+          <Link href="/trials">Browse trials</Link>
+        </p>
+      </section>
+
+      <div className="grid gap-10 md:grid-cols-2">
+        <RecentDecisions decisions={recentDecisions} />
+        <TrialsNeedingCheckIns trials={trialsNeedingCheckIns} />
+      </div>
+    </div>
+  );
+}
