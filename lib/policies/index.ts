@@ -105,9 +105,15 @@ export function can(actor: Actor, action: Action, resource?: Resource): boolean 
  * Throws unless the actor may perform the action: UnauthenticatedError (401)
  * for a visitor when signing in could help, ForbiddenError (403) otherwise.
  */
-export function authorize(actor: Actor, action: Action, resource?: Resource): asserts actor is NonNullable<Actor> {
+export function authorize(actor: Actor, action: Action, resource?: Resource): void {
   if (can(actor, action, resource)) return;
   if (!actor) throw new UnauthenticatedError();
   if (actor.disabled) throw new ForbiddenError('This account is disabled.');
   throw new ForbiddenError();
+}
+
+/** Like `authorize`, for actions that need a signed-in user; narrows the actor to non-null. */
+export function authorizeUser(actor: Actor, action: Action, resource?: Resource): asserts actor is NonNullable<Actor> {
+  if (!actor) throw new UnauthenticatedError();
+  authorize(actor, action, resource);
 }
