@@ -37,7 +37,8 @@ export default function GlobalError({
             >
               Try again
             </button>
-            {/* A plain anchor: a full reload rebuilds the root layout. */}
+            {/* A plain anchor on purpose: a full page load rebuilds the failed root layout. */}
+            {/* eslint-disable-next-line @next/next/no-html-link-for-pages */}
             <a href="/">Go to the home page</a>
           </div>
         </main>
