@@ -1,18 +1,19 @@
 import Link from 'next/link';
+import { listRecentDecisions } from '@/lib/queries/home';
 import { SearchBox } from '@/components/search/search-box';
 import {
   RecentDecisions,
   TrialsNeedingCheckIns,
-  type RecentDecision,
   type TrialNeedingCheckIn,
 } from '@/components/layout/home-sections';
 import { VerdictLegend } from '@/components/layout/verdict-legend';
 import { SETTINGS, SETTING_DESCRIPTIONS, SETTING_LABELS } from '@/components/layout/vocabulary';
 
-export default function HomePage() {
-  // SLOT: recent verdict decisions — to be filled from lib/queries (decided
-  // proposals, newest first). Empty until then; never sample data.
-  const recentDecisions: RecentDecision[] = [];
+// Recent decisions come from the database on each request.
+export const dynamic = 'force-dynamic';
+
+export default async function HomePage() {
+  const recentDecisions = await listRecentDecisions();
   // SLOT: trials needing check-ins — the signed-in contributor's own trials
   // whose next check-in is due. Empty (and to be hidden for anonymous
   // readers) until the session and queries exist.
