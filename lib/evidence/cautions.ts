@@ -1,0 +1,86 @@
+/**
+ * Cautions: for each adverse event, how many trials showed it and at which
+ * surface loads ("heating in 3 of 5 trials, all above 6 kg/m²").
+ */
+import { formatLoad } from './derivation';
+import { ADVERSE_EVENTS, ADVERSE_EVENT_WORDS } from './outcome';
+import type { AdverseEvent, Caution } from './types';
+
+/** A trial as the caution list sees it. */
+export interface CautionTrial {
+  id: string;
+  loadKgM2: number;
+  events: readonly AdverseEvent[];
+  /** Trials without check-ins are left out of the denominator. */
+  hasCheckIns: boolean;
+}
+
+const INDEX: Record<string, number> = Object.fromEntries(ADVERSE_EVENTS.map((e, i) => [e, i]));
+
+/**
+ * Caution list of a group, most frequent first (ties in the fixed event order
+ * of ADVERSE_EVENTS). Denominator: trials with at least one check-in.
+ * Load pattern: `above` when every trial with the event had a higher load than
+ * every trial without it (boundary = highest load without it); `all-loads`
+ * when every trial had it; else `mixed` (the load range is given).
+ * Throws nothing; trials without check-ins are ignored.
+ */
+export function computeCautions(trials: readonly CautionTrial[]): Caution[] {
+  const k = ADVERSE_EVENTS.length;
+  const count = new Array<number>(k).fill(0);
+  const minWith = new Array<number>(k).fill(Infinity);
+  const maxWith = new Array<number>(k).fill(-Infinity);
+  const maxWithout = new Array<number>(k).fill(-Infinity);
+  const ids: string[][] = Array.from({ length: k }, () => []);
+  const has = new Uint8Array(k);
+  let outOf = 0;
+  for (const t of trials) {
+    if (!t.hasCheckIns) continue;
+    outOf++;
+    has.fill(0);
+    for (const e of t.events) has[INDEX[e]] = 1;
+    const x = t.loadKgM2;
+    for (let i = 0; i < k; i++) {
+      if (has[i]) {
+        count[i]++;
+        if (x < minWith[i]) minWith[i] = x;
+        if (x > maxWith[i]) maxWith[i] = x;
+        ids[i].push(t.id);
+      } else if (x > maxWithout[i]) maxWithout[i] = x;
+    }
+  }
+  const out: Caution[] = [];
+  for (let i = 0; i < k; i++) {
+    if (count[i] === 0) continue;
+    const event = ADVERSE_EVENTS[i];
+    let pattern: Caution['pattern'];
+    let boundary: number | null = null;
+    if (count[i] === outOf) pattern = 'all-loads';
+    else if (minWith[i] > maxWithout[i]) {
+      pattern = 'above';
+      boundary = maxWithout[i];
+    } else pattern = 'mixed';
+    const range =
+      minWith[i] === maxWith[i] ? `${formatLoad(minWith[i])} kg/m²` : `${formatLoad(minWith[i])}–${formatLoad(maxWith[i])} kg/m²`;
+    const where =
+      pattern === 'above'
+        ? `all above ${formatLoad(boundary as number)} kg/m²`
+        : pattern === 'all-loads'
+          ? `at every tested load (${range})`
+          : `at ${range}`;
+    const words = ADVERSE_EVENT_WORDS[event];
+    out.push({
+      event,
+      trials: count[i],
+      outOf,
+      minLoadKgM2: minWith[i],
+      maxLoadKgM2: maxWith[i],
+      pattern,
+      boundaryKgM2: boundary,
+      trialIds: ids[i].slice().sort((a, b) => (a < b ? -1 : a > b ? 1 : 0)),
+      text: `${words[0].toUpperCase()}${words.slice(1)} in ${count[i]} of ${outOf} trials, ${where}`,
+    });
+  }
+  out.sort((a, b) => b.trials - a.trials || INDEX[a.event] - INDEX[b.event]);
+  return out;
+}

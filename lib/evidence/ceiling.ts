@@ -1,0 +1,249 @@
+/**
+ * Dose ceiling: a weighted pool-adjacent-violators (PAVA) fit of the consumed
+ * share against surface load, constrained to be non-increasing (more load is
+ * never easier), and the highest tested load whose fitted share stays at or
+ * above CEILING_SUCCESS_THRESHOLD.
+ *
+ * Trials at the same load are pooled first (weight = number of trials), so
+ * the fit is O(m) in the number of distinct loads after an O(n log n) sort.
+ * Sums and weights are integer counts, so comparisons are exact and the
+ * result does not depend on input order.
+ */
+import { CEILING_SUCCESS_THRESHOLD } from './thresholds';
+import type { CeilingEstimate, FitBlock } from './types';
+
+/** Finished trials pooled by distinct load, ascending. */
+export interface PooledLoads {
+  loads: number[];
+  /** Consumed trials at each load. */
+  successes: number[];
+  /** All finished trials at each load. */
+  weights: number[];
+}
+
+/** One PAVA block over pooled indices [start, end]. */
+export interface PavaBlock {
+  start: number;
+  end: number;
+  sum: number;
+  weight: number;
+}
+
+/** A finished trial as the ceiling sees it. */
+export interface CeilingPoint {
+  id: string;
+  loadKgM2: number;
+  success: boolean;
+}
+
+const EPS = 1e-9;
+
+/**
+ * Pools points by identical load, ascending. Throws RangeError on a load that is not finite and > 0.
+ */
+export function poolByLoad(points: readonly { loadKgM2: number; success: boolean }[]): PooledLoads {
+  const n = points.length;
+  const xs = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const x = points[i].loadKgM2;
+    if (!Number.isFinite(x) || x <= 0) throw new RangeError(`load must be finite and > 0, got ${String(x)}`);
+    xs[i] = x;
+  }
+  // Sort indices by load via a typed-array sort of (load, index) would need packing; sort a copy and count instead.
+  const order = Array.from({ length: n }, (_, i) => i);
+  order.sort((a, b) => xs[a] - xs[b]);
+  const loads: number[] = [];
+  const successes: number[] = [];
+  const weights: number[] = [];
+  for (let k = 0; k < n; k++) {
+    const i = order[k];
+    const x = xs[i];
+    const last = loads.length - 1;
+    if (last >= 0 && loads[last] === x) {
+      weights[last] += 1;
+      if (points[i].success) successes[last] += 1;
+    } else {
+      loads.push(x);
+      weights.push(1);
+      successes.push(points[i].success ? 1 : 0);
+    }
+  }
+  return { loads, successes, weights };
+}
+
+/**
+ * Weighted pool-adjacent-violators for a non-increasing fit over pooled loads.
+ * Each block's fitted value is sum / weight. O(m). Throws nothing for valid pooled input.
+ */
+export function pavaNonIncreasing(pooled: PooledLoads): PavaBlock[] {
+  const m = pooled.loads.length;
+  const stack: PavaBlock[] = [];
+  for (let i = 0; i < m; i++) {
+    let cur: PavaBlock = { start: i, end: i, sum: pooled.successes[i], weight: pooled.weights[i] };
+    // Violation of "non-increasing": previous mean < current mean (exact with integer counts).
+    while (stack.length > 0) {
+      const prev = stack[stack.length - 1];
+      if (prev.sum * cur.weight < cur.sum * prev.weight) {
+        stack.pop();
+        cur = { start: prev.start, end: cur.end, sum: prev.sum + cur.sum, weight: prev.weight + cur.weight };
+      } else break;
+    }
+    stack.push(cur);
+  }
+  return stack;
+}
+
+/** Generic weighted isotonic (non-increasing) regression; returns the fitted value per input point, in input order. Throws RangeError on non-finite input or weights ≤ 0. */
+export function isotonicNonIncreasing(points: readonly { x: number; y: number; w?: number }[]): number[] {
+  const n = points.length;
+  const order = Array.from({ length: n }, (_, i) => i);
+  for (const p of points) {
+    if (!Number.isFinite(p.x) || !Number.isFinite(p.y)) throw new RangeError('points must be finite');
+    if (p.w !== undefined && (!Number.isFinite(p.w) || p.w <= 0)) throw new RangeError('weights must be > 0');
+  }
+  order.sort((a, b) => points[a].x - points[b].x);
+  type B = { xs: number[]; sum: number; w: number };
+  const stack: B[] = [];
+  let k = 0;
+  while (k < n) {
+    const x = points[order[k]].x;
+    const idx: number[] = [];
+    let sum = 0;
+    let w = 0;
+    while (k < n && points[order[k]].x === x) {
+      const p = points[order[k]];
+      const pw = p.w ?? 1;
+      sum += p.y * pw;
+      w += pw;
+      idx.push(order[k]);
+      k++;
+    }
+    let cur: B = { xs: idx, sum, w };
+    while (stack.length > 0) {
+      const prev = stack[stack.length - 1];
+      if (prev.sum / prev.w < cur.sum / cur.w) {
+        stack.pop();
+        cur = { xs: prev.xs.concat(cur.xs), sum: prev.sum + cur.sum, w: prev.w + cur.w };
+      } else break;
+    }
+    stack.push(cur);
+  }
+  const fitted = new Array<number>(n);
+  for (const b of stack) for (const i of b.xs) fitted[i] = b.sum / b.w;
+  return fitted;
+}
+
+/** The ceiling read off a fit, without trial ids. */
+export interface CeilingCore {
+  kgM2: number | null;
+  isHighestTested: boolean;
+  nextLoadAboveKgM2: number | null;
+  blocks: PavaBlock[];
+}
+
+/**
+ * Ceiling from pooled loads: the highest load whose block mean is ≥ threshold
+ * (blocks are non-increasing, so qualifying blocks form a prefix). `null` when
+ * no load qualifies or there are no loads.
+ */
+export function ceilingFromPooled(pooled: PooledLoads, threshold: number = CEILING_SUCCESS_THRESHOLD): CeilingCore {
+  const blocks = pavaNonIncreasing(pooled);
+  let lastOk = -1;
+  for (let b = 0; b < blocks.length; b++) {
+    if (blocks[b].sum - threshold * blocks[b].weight >= -EPS) lastOk = b;
+    else break;
+  }
+  const m = pooled.loads.length;
+  if (lastOk < 0) {
+    return { kgM2: null, isHighestTested: false, nextLoadAboveKgM2: m > 0 ? pooled.loads[0] : null, blocks };
+  }
+  const endIdx = blocks[lastOk].end;
+  return {
+    kgM2: pooled.loads[endIdx],
+    isHighestTested: endIdx === m - 1,
+    nextLoadAboveKgM2: endIdx + 1 < m ? pooled.loads[endIdx + 1] : null,
+    blocks,
+  };
+}
+
+/**
+ * Pooled loads with `weight` extra trials (`successes` of them consumed) at
+ * `load`, without changing the input. O(m). Throws RangeError on a bad load or counts.
+ */
+export function withExtraTrials(pooled: PooledLoads, load: number, successes: number, weight: number): PooledLoads {
+  if (!Number.isFinite(load) || load <= 0) throw new RangeError('load must be finite and > 0');
+  if (!Number.isInteger(weight) || weight < 1 || !Number.isInteger(successes) || successes < 0 || successes > weight) {
+    throw new RangeError('bad hypothetical counts');
+  }
+  const loads = pooled.loads.slice();
+  const succ = pooled.successes.slice();
+  const w = pooled.weights.slice();
+  // binary search for insertion point
+  let lo = 0;
+  let hi = loads.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (loads[mid] < load) lo = mid + 1;
+    else hi = mid;
+  }
+  if (lo < loads.length && loads[lo] === load) {
+    succ[lo] += successes;
+    w[lo] += weight;
+  } else {
+    loads.splice(lo, 0, load);
+    succ.splice(lo, 0, successes);
+    w.splice(lo, 0, weight);
+  }
+  return { loads, successes: succ, weights: w };
+}
+
+/** Fit blocks in loads and fitted values, for output. */
+export function fitBlocks(pooled: PooledLoads, blocks: readonly PavaBlock[]): FitBlock[] {
+  return blocks.map((b) => ({
+    fromKgM2: pooled.loads[b.start],
+    toKgM2: pooled.loads[b.end],
+    fitted: b.sum / b.weight,
+    weight: b.weight,
+  }));
+}
+
+/**
+ * Dose ceiling of a set of finished trials (consumed = success). Returns the
+ * ceiling, whether it is simply the highest tested load, the next tested load
+ * above it, the fit blocks and the trials at the ceiling load (sorted ids).
+ * Throws RangeError on loads that are not finite and > 0.
+ */
+export function doseCeiling(points: readonly CeilingPoint[], threshold: number = CEILING_SUCCESS_THRESHOLD): CeilingEstimate {
+  const pooled = poolByLoad(points);
+  return ceilingEstimateFromPooled(pooled, points, threshold);
+}
+
+/** As `doseCeiling`, with the pooled loads already computed. */
+export function ceilingEstimateFromPooled(
+  pooled: PooledLoads,
+  points: readonly CeilingPoint[],
+  threshold: number = CEILING_SUCCESS_THRESHOLD,
+): CeilingEstimate {
+  const core = ceilingFromPooled(pooled, threshold);
+  const m = pooled.loads.length;
+  const atCeiling: string[] = [];
+  if (core.kgM2 !== null) {
+    for (const p of points) if (p.loadKgM2 === core.kgM2) atCeiling.push(p.id);
+    atCeiling.sort(byString);
+  }
+  return {
+    kgM2: core.kgM2,
+    threshold,
+    isHighestTested: core.isHighestTested,
+    lowestTestedKgM2: m > 0 ? pooled.loads[0] : null,
+    highestTestedKgM2: m > 0 ? pooled.loads[m - 1] : null,
+    nextLoadAboveKgM2: core.nextLoadAboveKgM2,
+    blocks: fitBlocks(pooled, core.blocks),
+    trialIdsAtCeiling: atCeiling,
+  };
+}
+
+/** Code-unit string order (locale-independent, deterministic). */
+export function byString(a: string, b: string): number {
+  return a < b ? -1 : a > b ? 1 : 0;
+}
