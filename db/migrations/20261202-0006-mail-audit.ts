@@ -1,4 +1,4 @@
-import { DataTypes } from 'sequelize';
+import { DataTypes, Sequelize } from 'sequelize';
 import { id, ref, timestamps, userRef, type Migration } from './_shared';
 
 /** Subscriptions, the mail outbox, the audit log and app metadata (e.g. when the demo was loaded). */
@@ -29,7 +29,7 @@ export const migration: Migration = {
       dedupe_key: { type: DataTypes.STRING(191), allowNull: true, unique: true },
       status: { type: DataTypes.ENUM('pending', 'sending', 'sent', 'failed', 'digest'), allowNull: false, defaultValue: 'pending' },
       attempts: { type: DataTypes.SMALLINT.UNSIGNED, allowNull: false, defaultValue: 0 },
-      next_attempt_at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: DataTypes.NOW },
+      next_attempt_at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: Sequelize.literal('CURRENT_TIMESTAMP(3)') },
       locked_until: { type: DataTypes.DATE(3), allowNull: true },
       last_error: { type: DataTypes.TEXT, allowNull: true },
       sent_at: { type: DataTypes.DATE(3), allowNull: true },
@@ -43,13 +43,13 @@ export const migration: Migration = {
       subject_type: { type: DataTypes.STRING(40), allowNull: false },
       subject_id: { type: DataTypes.STRING(64), allowNull: false },
       details: { type: DataTypes.JSON, allowNull: false },
-      created_at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: DataTypes.NOW },
+      created_at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: Sequelize.literal('CURRENT_TIMESTAMP(3)') },
     });
     await q.addIndex('audit_log', ['subject_type', 'subject_id'], { name: 'audit_log_subject' });
     await q.createTable('app_meta', {
       key: { type: DataTypes.STRING(64), primaryKey: true },
       value: { type: DataTypes.TEXT, allowNull: false },
-      updated_at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: DataTypes.NOW },
+      updated_at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: Sequelize.literal('CURRENT_TIMESTAMP(3)') },
     });
   },
   async down({ context: q }) {

@@ -1,4 +1,4 @@
-import { DataTypes, type QueryInterface } from 'sequelize';
+import { DataTypes, Sequelize, type QueryInterface } from 'sequelize';
 
 /** The umzug context every migration receives. */
 export type MigrationContext = { context: QueryInterface };
@@ -12,8 +12,8 @@ export interface Migration {
 
 /** created_at/updated_at columns, UTC, millisecond precision. */
 export const timestamps = () => ({
-  created_at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: DataTypes.NOW },
-  updated_at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: DataTypes.NOW },
+  created_at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: Sequelize.literal('CURRENT_TIMESTAMP(3)') },
+  updated_at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: Sequelize.literal('CURRENT_TIMESTAMP(3)') },
 });
 
 export const id = () => ({ type: DataTypes.INTEGER.UNSIGNED, autoIncrement: true, primaryKey: true });

@@ -30,7 +30,7 @@ describe('database constraints', () => {
       sequelize.query('INSERT INTO votes (proposal_id, voter_id, agree, reason) VALUES (?, ?, 1, ?)', {
         replacements: [proposal.id, voter.id, 'again'],
       }),
-    ).rejects.toThrow(/Duplicate entry/);
+    ).rejects.toBeInstanceOf(UniqueConstraintError);
     expect(await Vote.count({ where: { proposalId: proposal.id } })).toBe(1);
   });
 
