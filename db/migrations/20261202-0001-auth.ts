@@ -1,4 +1,4 @@
-import { DataTypes, Sequelize } from 'sequelize';
+import { DataTypes } from 'sequelize';
 import { timestamps, type Migration } from './_shared';
 
 /** Auth.js adapter tables (users, accounts, sessions, verification tokens) with our role column. */

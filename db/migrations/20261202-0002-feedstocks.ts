@@ -1,4 +1,4 @@
-import { DataTypes, Sequelize } from 'sequelize';
+import { DataTypes } from 'sequelize';
 import { id, ref, timestamps, userRef, type Migration } from './_shared';
 
 /** Feedstocks, their aliases and redirects, page-text revisions and requests for new feedstocks. */

@@ -1,4 +1,4 @@
-import { DataTypes, Sequelize } from 'sequelize';
+import { DataTypes } from 'sequelize';
 import { id, ref, timestamps, userRef, OUTCOMES, PREPARATIONS, SETTINGS, type Migration } from './_shared';
 
 /** Feeding trials, their check-ins and photos. Region only: never an exact location. */

@@ -1,4 +1,4 @@
-import { DataTypes, Sequelize } from 'sequelize';
+import { DataTypes } from 'sequelize';
 import { id, ref, CERTAINTY, PREPARATIONS, SETTINGS, VERDICTS, type Migration } from './_shared';
 
 /**

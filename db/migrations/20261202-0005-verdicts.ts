@@ -1,4 +1,4 @@
-import { DataTypes, Sequelize } from 'sequelize';
+import { DataTypes } from 'sequelize';
 import { id, ref, timestamps, userRef, SETTINGS, VERDICTS, type Migration } from './_shared';
 
 /** Published verdicts, their history, verdict proposals with cited trials, and votes. */

@@ -7,7 +7,7 @@ import next from 'next';
  * `npm test`), wrapped in a Node HTTP server for supertest.
  */
 export async function startNextHandler(): Promise<{ server: http.Server; close: () => Promise<void> }> {
-  const app = next({ dev: false, dir: path.resolve(__dirname, '../..'), hostname: 'localhost', quiet: true });
+  const app = next({ dev: false, dir: process.cwd(), hostname: 'localhost', quiet: true });
   await app.prepare();
   const handle = app.getRequestHandler();
   const server = http.createServer((req, res) => handle(req, res));
