@@ -5,11 +5,11 @@
  * from integer counts.
  */
 import { computeCautions } from './cautions';
-import { byString, ceilingEstimateFromPooled, ceilingFromPooled, poolByLoad, withExtraTrials, type PooledLoads } from './ceiling';
+import { ceilingEstimateFromPooled, hypotheticalCeiling, poolByLoad, type PooledLoads } from './ceiling';
 import { gradeCertainty } from './certainty';
 import { groupSentences, settingSentences, whatWouldChangeText } from './derivation';
 import { normaliseTrial } from './normalise';
-import { classifyTrial } from './outcome';
+import { summariseTrial, type TrialSummary } from './outcome';
 import { kaplanMeier, type SurvivalObservation } from './survival';
 import {
   BASELINE_PREPARATION,
@@ -37,7 +37,6 @@ import type {
   Setting,
   SettingVerdict,
   ThresholdCheck,
-  TrialClassification,
   TrialInput,
   Verdict,
   WhatWouldChange,
@@ -55,7 +54,10 @@ export interface PreparedTrial {
   loadKgM2: number;
   hasControl: boolean;
   hasPhotos: boolean;
-  classification: TrialClassification;
+  hasCheckIns: boolean;
+  /** Adverse events seen, bit k = ADVERSE_EVENTS[k]. */
+  eventMask: number;
+  classification: TrialSummary;
 }
 
 /**
@@ -68,11 +70,12 @@ export function prepareTrial(t: TrialInput): PreparedTrial {
   if (typeof t.contributorId !== 'string' || t.contributorId.length === 0) {
     throw new RangeError(`trial ${t.id}: contributorId must be a non-empty string`);
   }
-  if (!SETTING_ORDER.includes(t.setting)) throw new RangeError(`trial ${t.id}: unknown setting ${String(t.setting)}`);
-  if (!PREPARATION_ORDER.includes(t.preparation)) throw new RangeError(`trial ${t.id}: unknown preparation ${String(t.preparation)}`);
+  if (SETTING_INDEX[t.setting] === undefined) throw new RangeError(`trial ${t.id}: unknown setting ${String(t.setting)}`);
+  if (PREP_INDEX[t.preparation] === undefined) throw new RangeError(`trial ${t.id}: unknown preparation ${String(t.preparation)}`);
   if (!Number.isInteger(t.photoCount) || t.photoCount < 0) throw new RangeError(`trial ${t.id}: photoCount must be a whole number ≥ 0`);
   if (typeof t.hasControl !== 'boolean') throw new RangeError(`trial ${t.id}: hasControl must be true or false`);
-  const loads = normaliseTrial(t);
+  const loads = normalise(t);
+  const classification = summarise(t);
   return {
     id: t.id,
     contributorId: t.contributorId,
@@ -82,7 +85,9 @@ export function prepareTrial(t: TrialInput): PreparedTrial {
     loadKgM2: loads.surfaceLoadKgM2,
     hasControl: t.hasControl,
     hasPhotos: t.photoCount > 0,
-    classification: classifyTrial(t),
+    hasCheckIns: classification.followUpDays !== null,
+    eventMask: classification.eventMask,
+    classification,
   };
 }
 
@@ -104,11 +109,13 @@ interface GroupState {
 
 const KINDS = ['consumed', 'harm'] as const;
 
-function settingIndex(s: Setting): number {
-  return SETTING_ORDER.indexOf(s);
-}
+const SETTING_INDEX: Record<string, number> = Object.fromEntries(SETTING_ORDER.map((s, i) => [s, i]));
+const PREP_INDEX: Record<string, number> = Object.fromEntries(PREPARATION_ORDER.map((p, i) => [p, i]));
+const normalise = normaliseTrial;
+const summarise = summariseTrial;
+
 function prepIndex(p: Preparation): number {
-  return PREPARATION_ORDER.indexOf(p);
+  return PREP_INDEX[p];
 }
 
 function firstIds(trials: readonly PreparedTrial[], pick: (t: PreparedTrial) => boolean): string[] {
@@ -135,8 +142,7 @@ function candidateLoads(
 
 /** Provisional verdict of a group after adding k hypothetical trials of one kind at one load. */
 function hypotheticalProvisional(st: GroupState, kind: (typeof KINDS)[number], load: number, k: number): GroupVerdict | null {
-  const pooled = withExtraTrials(st.pooled, load, kind === 'consumed' ? k : 0, k);
-  const core = ceilingFromPooled(pooled);
+  const ceilingKgM2 = hypotheticalCeiling(st.pooled, load, kind === 'consumed' ? k : 0, k);
   const finished = st.finished + k;
   const consumed = st.consumed + (kind === 'consumed' ? k : 0);
   const harm = st.harm + (kind === 'harm' ? k : 0);
@@ -146,7 +152,7 @@ function hypotheticalProvisional(st: GroupState, kind: (typeof KINDS)[number], l
     partial: st.partial,
     harm,
     successLower: wilson(consumed, finished).lower,
-    ceilingKgM2: core.kgM2,
+    ceilingKgM2,
   }).verdict;
 }
 
@@ -192,60 +198,62 @@ function groupWhatWouldChange(st: GroupState, current: Verdict): WhatWouldChange
 }
 
 function buildGroup(setting: Setting, preparation: Preparation, trials: readonly PreparedTrial[], opts: Required<AggregateOptions>): GroupState {
-  const counts: GroupCounts = {
-    trials: trials.length,
-    finished: 0,
-    running: 0,
-    closed: 0,
-    abandoned: 0,
-    consumed: 0,
-    partial: 0,
-    rejected: 0,
-    harm: 0,
-    contributors: 0,
-    finishedContributors: 0,
-    withControl: 0,
-    withPhotos: 0,
-  };
   const contributors = new Set<string>();
   const finishedContributors = new Set<string>();
   const points: { id: string; loadKgM2: number; success: boolean }[] = [];
   const km: SurvivalObservation[] = [];
-  const harmless = new Map<Pest, number>();
-  const cautionTrials = [];
+  let springtails = 0;
+  let running = 0;
+  let closed = 0;
+  let consumed = 0;
+  let partial = 0;
+  let rejected = 0;
+  let harmCount = 0;
+  let withControl = 0;
+  let withPhotos = 0;
   for (const t of trials) {
     contributors.add(t.contributorId);
-    counts[t.status]++;
+    if (t.status === 'running') running++;
+    else if (t.status === 'closed') closed++;
     const c = t.classification;
     const o: Outcome | null = c.outcome;
     if (o !== null) {
-      counts.finished++;
-      counts[o]++;
+      if (o === 'consumed') consumed++;
+      else if (o === 'partial') partial++;
+      else if (o === 'rejected') rejected++;
+      else harmCount++;
       finishedContributors.add(t.contributorId);
-      if (t.hasControl) counts.withControl++;
-      if (t.hasPhotos) counts.withPhotos++;
+      if (t.hasControl) withControl++;
+      if (t.hasPhotos) withPhotos++;
       points.push({ id: t.id, loadKgM2: t.loadKgM2, success: o === 'consumed' });
     }
     if (c.followUpDays !== null) {
       km.push(c.daysToConsumption !== null ? { time: c.daysToConsumption, event: true } : { time: c.followUpDays, event: false });
     }
-    for (const h of c.harmless) harmless.set(h, (harmless.get(h) ?? 0) + 1);
-    cautionTrials.push({
-      id: t.id,
-      loadKgM2: t.loadKgM2,
-      events: c.adverseEvents.map((e) => e.event),
-      hasCheckIns: c.followUpDays !== null,
-    });
+    if (c.springtails) springtails++;
   }
-  counts.contributors = contributors.size;
-  counts.finishedContributors = finishedContributors.size;
+  const counts: GroupCounts = {
+    trials: trials.length,
+    finished: points.length,
+    running,
+    closed,
+    abandoned: trials.length - running - closed,
+    consumed,
+    partial,
+    rejected,
+    harm: harmCount,
+    contributors: contributors.size,
+    finishedContributors: finishedContributors.size,
+    withControl,
+    withPhotos,
+  };
 
   const success = proportionEstimate(counts.consumed, counts.finished);
   const harm = proportionEstimate(counts.harm, counts.finished);
   const pooled = poolByLoad(points);
   const ceiling = ceilingEstimateFromPooled(pooled, points);
   const timeToConsumption = kaplanMeier(km);
-  const cautions = computeCautions(cautionTrials);
+  const cautions = computeCautions(trials);
 
   // Disagreement with the monotone fit, for inconsistency (fit ≥ FIT_PREDICTS_CONSUMED predicts consumed).
   let disagreements = 0;
@@ -320,7 +328,7 @@ function buildGroup(setting: Setting, preparation: Preparation, trials: readonly
     );
   }
 
-  const harmlessList = [...harmless.entries()].sort((a, b) => byString(a[0], b[0])).map(([pest, n]) => ({ pest, trials: n }));
+  const harmlessList: { pest: Pest; trials: number }[] = springtails > 0 ? [{ pest: 'springtails', trials: springtails }] : [];
   const km0 = timeToConsumption;
   const derivation: Derivation = {
     numbers: {
@@ -523,35 +531,28 @@ function buildSetting(setting: Setting, states: readonly GroupState[], trialsInS
 export function aggregateFeedstock(trials: readonly TrialInput[], opts: AggregateOptions = {}): FeedstockAggregate {
   const options: Required<AggregateOptions> = { whatWouldChange: opts.whatWouldChange ?? true };
   const prepared = trials.map(prepareTrial);
-  prepared.sort((a, b) => byString(a.id, b.id));
+  prepared.sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
   for (let i = 1; i < prepared.length; i++) {
     if (prepared[i].id === prepared[i - 1].id) throw new RangeError(`duplicate trial id ${prepared[i].id}`);
   }
-  const byGroup = new Map<string, PreparedTrial[]>();
-  const bySetting = new Map<Setting, PreparedTrial[]>();
+  // Buckets by setting × preparation in output order; each keeps id order.
+  const np = PREPARATION_ORDER.length;
+  const buckets: PreparedTrial[][] = Array.from({ length: SETTING_ORDER.length * np }, () => []);
+  const bySetting: PreparedTrial[][] = SETTING_ORDER.map(() => []);
   for (const t of prepared) {
-    const key = `${t.setting}/${t.preparation}`;
-    let g = byGroup.get(key);
-    if (!g) byGroup.set(key, (g = []));
-    g.push(t);
-    let s = bySetting.get(t.setting);
-    if (!s) bySetting.set(t.setting, (s = []));
-    s.push(t);
+    const si = SETTING_INDEX[t.setting];
+    buckets[si * np + PREP_INDEX[t.preparation]].push(t);
+    bySetting[si].push(t);
   }
-  const keys = [...byGroup.keys()].sort((a, b) => {
-    const [sa, pa] = a.split('/') as [Setting, Preparation];
-    const [sb, pb] = b.split('/') as [Setting, Preparation];
-    return settingIndex(sa) - settingIndex(sb) || prepIndex(pa) - prepIndex(pb);
-  });
-  const states = keys.map((key) => {
-    const list = byGroup.get(key) as PreparedTrial[];
-    return buildGroup(list[0].setting, list[0].preparation, list, options);
-  });
+  const states: GroupState[] = [];
+  for (let b = 0; b < buckets.length; b++) {
+    const list = buckets[b];
+    if (list.length > 0) states.push(buildGroup(list[0].setting, list[0].preparation, list, options));
+  }
   const settings: SettingVerdict[] = [];
-  for (const setting of SETTING_ORDER) {
+  SETTING_ORDER.forEach((setting, si) => {
     const inSetting = states.filter((s) => s.setting === setting);
-    if (inSetting.length === 0) continue;
-    settings.push(buildSetting(setting, inSetting, bySetting.get(setting) as PreparedTrial[], options));
-  }
+    if (inSetting.length > 0) settings.push(buildSetting(setting, inSetting, bySetting[si], options));
+  });
   return { groups: states.map((s) => s.aggregate as GroupAggregate), settings, rulesVersion: RULES_VERSION };
 }

@@ -10,12 +10,16 @@ import type { AdverseEvent, Caution } from './types';
 export interface CautionTrial {
   id: string;
   loadKgM2: number;
-  events: readonly AdverseEvent[];
+  /** Events seen: either as records... */
+  adverseEvents?: readonly { event: AdverseEvent }[];
+  /** ...or as a bit mask, bit k = ADVERSE_EVENTS[k] (wins when given). */
+  eventMask?: number;
   /** Trials without check-ins are left out of the denominator. */
   hasCheckIns: boolean;
 }
 
 const INDEX: Record<string, number> = Object.fromEntries(ADVERSE_EVENTS.map((e, i) => [e, i]));
+const INDEX_MAP = new Map<string, number>(ADVERSE_EVENTS.map((e, i) => [e, i]));
 
 /**
  * Caution list of a group, most frequent first (ties in the fixed event order
@@ -23,7 +27,7 @@ const INDEX: Record<string, number> = Object.fromEntries(ADVERSE_EVENTS.map((e, 
  * Load pattern: `above` when every trial with the event had a higher load than
  * every trial without it (boundary = highest load without it); `all-loads`
  * when every trial had it; else `mixed` (the load range is given).
- * Throws nothing; trials without check-ins are ignored.
+ * Trials without check-ins are ignored. Throws RangeError on an unknown event.
  */
 export function computeCautions(trials: readonly CautionTrial[]): Caution[] {
   const k = ADVERSE_EVENTS.length;
@@ -32,16 +36,23 @@ export function computeCautions(trials: readonly CautionTrial[]): Caution[] {
   const maxWith = new Array<number>(k).fill(-Infinity);
   const maxWithout = new Array<number>(k).fill(-Infinity);
   const ids: string[][] = Array.from({ length: k }, () => []);
-  const has = new Uint8Array(k);
   let outOf = 0;
-  for (const t of trials) {
+  for (let ti = 0; ti < trials.length; ti++) {
+    const t = trials[ti];
     if (!t.hasCheckIns) continue;
     outOf++;
-    has.fill(0);
-    for (const e of t.events) has[INDEX[e]] = 1;
+    let mask = t.eventMask ?? 0;
+    if (t.eventMask === undefined && t.adverseEvents) {
+      const evs = t.adverseEvents;
+      for (let j = 0; j < evs.length; j++) {
+        const bit = INDEX_MAP.get(evs[j].event);
+        if (bit === undefined) throw new RangeError(`unknown adverse event ${String(evs[j].event)}`);
+        mask |= 1 << bit;
+      }
+    }
     const x = t.loadKgM2;
     for (let i = 0; i < k; i++) {
-      if (has[i]) {
+      if (mask & (1 << i)) {
         count[i]++;
         if (x < minWith[i]) minWith[i] = x;
         if (x > maxWith[i]) maxWith[i] = x;

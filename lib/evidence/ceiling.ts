@@ -36,7 +36,30 @@ export interface CeilingPoint {
   success: boolean;
 }
 
-const EPS = 1e-9;
+/** A threshold as an exact fraction num/den (den ≤ 1000), so comparisons with integer counts are exact. */
+export interface ThresholdFraction {
+  num: number;
+  den: number;
+}
+
+/**
+ * The threshold as a fraction with the smallest denominator ≤ 1000 that
+ * represents it to 1e-12 (0.8 → 4/5). Throws RangeError outside [0, 1] or
+ * when no such fraction exists.
+ */
+export function thresholdFraction(threshold: number): ThresholdFraction {
+  if (!Number.isFinite(threshold) || threshold < 0 || threshold > 1) throw new RangeError('threshold must be in [0, 1]');
+  for (let den = 1; den <= 1000; den++) {
+    const num = Math.round(threshold * den);
+    if (Math.abs(num / den - threshold) < 1e-12) return { num, den };
+  }
+  throw new RangeError('threshold must be a fraction with a denominator of at most 1000');
+}
+
+/** True when sum / weight ≥ num / den, exactly for integer counts. */
+function meets(sum: number, weight: number, f: ThresholdFraction): boolean {
+  return sum * f.den >= f.num * weight;
+}
 
 /**
  * Pools points by identical load, ascending. Throws RangeError on a load that is not finite and > 0.
@@ -148,9 +171,10 @@ export interface CeilingCore {
  */
 export function ceilingFromPooled(pooled: PooledLoads, threshold: number = CEILING_SUCCESS_THRESHOLD): CeilingCore {
   const blocks = pavaNonIncreasing(pooled);
+  const f = thresholdFraction(threshold);
   let lastOk = -1;
   for (let b = 0; b < blocks.length; b++) {
-    if (blocks[b].sum - threshold * blocks[b].weight >= -EPS) lastOk = b;
+    if (meets(blocks[b].sum, blocks[b].weight, f)) lastOk = b;
     else break;
   }
   const m = pooled.loads.length;
@@ -164,6 +188,80 @@ export function ceilingFromPooled(pooled: PooledLoads, threshold: number = CEILI
     nextLoadAboveKgM2: endIdx + 1 < m ? pooled.loads[endIdx + 1] : null,
     blocks,
   };
+}
+
+/** Reused buffers of hypotheticalCeiling (a cache only: results never depend on it). */
+let scratch = { xs: new Float64Array(64), a: new Float64Array(64), sufMax: new Float64Array(64) };
+
+/**
+ * Ceiling (kg/m², or null) after adding `weight` hypothetical trials, `successes`
+ * of them consumed, at `load` — without building a new fit. Uses the min–max
+ * form of isotonic regression: for a non-increasing fit, the fitted value at
+ * point i is min over s ≤ i of max over t ≥ i of the mean of points s..t, so
+ * fit(i) ≥ c exactly when max_{t ≥ i} P[t+1] ≥ max_{s ≤ i} P[s], with P the
+ * prefix sums of (successes·den − num·weight). Integer arithmetic, one O(m)
+ * pass each way over reused scratch buffers. Gives the same
+ * answer as withExtraTrials + ceilingFromPooled (tested).
+ * Throws RangeError on a bad load or counts.
+ */
+export function hypotheticalCeiling(
+  pooled: PooledLoads,
+  load: number,
+  successes: number,
+  weight: number,
+  threshold: number = CEILING_SUCCESS_THRESHOLD,
+): number | null {
+  if (!Number.isFinite(load) || load <= 0) throw new RangeError('load must be finite and > 0');
+  if (!Number.isInteger(weight) || weight < 0 || !Number.isInteger(successes) || successes < 0 || successes > weight) {
+    throw new RangeError('bad hypothetical counts');
+  }
+  const f = thresholdFraction(threshold);
+  const { loads, successes: succ, weights } = pooled;
+  const m = loads.length;
+  // position of the hypothetical point: merge into an equal load or insert before the first larger one
+  let q = 0;
+  while (q < m && loads[q] < load) q++;
+  const merge = q < m && loads[q] === load;
+  const size = weight === 0 ? m : merge ? m : m + 1;
+  if (scratch.xs.length < size) {
+    const cap = Math.max(size, 2 * scratch.xs.length);
+    scratch = { xs: new Float64Array(cap), a: new Float64Array(cap), sufMax: new Float64Array(cap) };
+  }
+  const { xs, a, sufMax } = scratch;
+  let k = 0;
+  for (let j = 0; j < m; j++) {
+    if (weight > 0 && !merge && j === q) {
+      xs[k] = load;
+      a[k++] = successes * f.den - f.num * weight;
+    }
+    xs[k] = loads[j];
+    a[k++] = succ[j] * f.den - f.num * weights[j] + (weight > 0 && merge && j === q ? successes * f.den - f.num * weight : 0);
+  }
+  if (weight > 0 && !merge && q === m) {
+    xs[k] = load;
+    a[k++] = successes * f.den - f.num * weight;
+  }
+  if (size === 0) return null;
+  // suffix max of P[t+1] for t ≥ i, computed backwards: P[t+1] = total − Σ_{j>t} a_j
+  let total = 0;
+  for (let j = 0; j < size; j++) total += a[j];
+  let p = total;
+  let best = -Infinity;
+  for (let i = size - 1; i >= 0; i--) {
+    if (p > best) best = p; // p = P[i+1]
+    sufMax[i] = best;
+    p -= a[i];
+  }
+  let prefMax = -Infinity;
+  let prefix = 0;
+  let ceiling: number | null = null;
+  for (let i = 0; i < size; i++) {
+    if (prefix > prefMax) prefMax = prefix; // prefix = P[i]
+    if (sufMax[i] >= prefMax) ceiling = xs[i];
+    else break; // qualifying points form a prefix
+    prefix += a[i];
+  }
+  return ceiling;
 }
 
 /**

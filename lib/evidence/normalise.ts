@@ -112,36 +112,40 @@ export function normaliseTrial(trial: Pick<TrialInput, 'id' | 'surfaceLoadKgM2' 
 
 const DAYS_IN_MONTH = [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
 
-function digit(s: string, i: number): number {
-  const c = s.charCodeAt(i) - 48;
-  if (c < 0 || c > 9) return -1;
-  return c;
+const CUM_DAYS = [0, 31, 59, 90, 120, 151, 181, 212, 243, 273, 304, 334];
+/** Days from 0001-01-01 to 1970-01-01. */
+const DAYS_TO_1970 = 719162;
+
+function badDate(date: unknown): never {
+  throw new RangeError(`date must be a calendar date as YYYY-MM-DD, got ${String(date)}`);
 }
 
 /**
  * Day number (days since 1970-01-01, proleptic Gregorian) of a `YYYY-MM-DD`
- * date. Throws RangeError on any other format or an impossible date.
+ * date, years 0001–9999. Throws RangeError on any other format or an impossible date.
  */
 export function dayNumber(date: string): number {
-  if (typeof date !== 'string' || date.length !== 10 || date.charCodeAt(4) !== 45 || date.charCodeAt(7) !== 45) {
-    throw new RangeError(`date must be YYYY-MM-DD, got ${String(date)}`);
+  if (typeof date !== 'string' || date.length !== 10 || date.charCodeAt(4) !== 45 || date.charCodeAt(7) !== 45) badDate(date);
+  const c0 = date.charCodeAt(0) - 48;
+  const c1 = date.charCodeAt(1) - 48;
+  const c2 = date.charCodeAt(2) - 48;
+  const c3 = date.charCodeAt(3) - 48;
+  const c5 = date.charCodeAt(5) - 48;
+  const c6 = date.charCodeAt(6) - 48;
+  const c8 = date.charCodeAt(8) - 48;
+  const c9 = date.charCodeAt(9) - 48;
+  if ((c0 | c1 | c2 | c3 | c5 | c6 | c8 | c9) < 0 || c0 > 9 || c1 > 9 || c2 > 9 || c3 > 9 || c5 > 9 || c6 > 9 || c8 > 9 || c9 > 9) {
+    badDate(date);
   }
-  const ds = [0, 1, 2, 3, 5, 6, 8, 9].map((i) => digit(date, i));
-  if (ds.some((d) => d < 0)) throw new RangeError(`date must be YYYY-MM-DD, got ${date}`);
-  const y = ds[0] * 1000 + ds[1] * 100 + ds[2] * 10 + ds[3];
-  const m = ds[4] * 10 + ds[5];
-  const d = ds[6] * 10 + ds[7];
-  const leap = (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
-  const dim = m === 2 && leap ? 29 : DAYS_IN_MONTH[m - 1];
-  if (m < 1 || m > 12 || d < 1 || d > dim) throw new RangeError(`not a calendar date: ${date}`);
-  // days-from-civil (H. Hinnant's algorithm)
-  const yy = m <= 2 ? y - 1 : y;
-  const era = Math.floor(yy / 400);
-  const yoe = yy - era * 400;
-  const mp = (m + 9) % 12;
-  const doy = Math.floor((153 * mp + 2) / 5) + d - 1;
-  const doe = yoe * 365 + Math.floor(yoe / 4) - Math.floor(yoe / 100) + doy;
-  return era * 146097 + doe - 719468;
+  const y = c0 * 1000 + c1 * 100 + c2 * 10 + c3;
+  const m = c5 * 10 + c6;
+  const d = c8 * 10 + c9;
+  if (y < 1 || m < 1 || m > 12 || d < 1) badDate(date);
+  const leap = (y & 3) === 0 && (y % 100 !== 0 || y % 400 === 0);
+  if (d > (m === 2 && leap ? 29 : DAYS_IN_MONTH[m - 1])) badDate(date);
+  const y1 = y - 1; // whole years before this one (y ≥ 1, so | 0 floors)
+  const daysBeforeYear = y1 * 365 + (y1 >> 2) - ((y1 / 100) | 0) + ((y1 / 400) | 0);
+  return daysBeforeYear + CUM_DAYS[m - 1] + (leap && m > 2 ? 1 : 0) + d - 1 - DAYS_TO_1970;
 }
 
 /** Whole days from `start` to `date` (both `YYYY-MM-DD`). Throws RangeError on bad dates. */

@@ -53,17 +53,12 @@ export const ADVERSE_PESTS: readonly Pest[] = ['flatworms', 'mites', 'fruit-flie
 /** Organisms recorded but not adverse. */
 export const HARMLESS_PESTS: readonly Pest[] = ['springtails'];
 
-const ALL_PESTS: readonly Pest[] = [...ADVERSE_PESTS, ...HARMLESS_PESTS];
-
 const EVENT_INDEX: Record<AdverseEvent, number> = Object.fromEntries(
   ADVERSE_EVENTS.map((e, i) => [e, i]),
 ) as Record<AdverseEvent, number>;
 
 const OUTCOMES: readonly Outcome[] = ['consumed', 'partial', 'rejected', 'harm'];
 
-const WORM_ACTIVITY = new Set(['none', 'few', 'many', 'swarming']);
-const SMELLS = new Set(['none', 'earthy', 'sour', 'rotten', 'ammonia']);
-const MOISTURE = new Set(['dry', 'damp', 'wet', 'waterlogged']);
 
 /** Plain-English name of an adverse event, for sentences. */
 export const ADVERSE_EVENT_WORDS: Readonly<Record<AdverseEvent, string>> = {
@@ -86,11 +81,34 @@ export const ADVERSE_EVENT_WORDS: Readonly<Record<AdverseEvent, string>> = {
   rodents: 'rodents',
 };
 
-function checkNumber(x: unknown, lo: number, hi: number, what: string, trialId: string): number {
-  if (typeof x !== 'number' || !Number.isFinite(x) || x < lo || x > hi) {
-    throw new RangeError(`trial ${trialId}: ${what} must be a number in ${lo}..${hi}, got ${String(x)}`);
-  }
-  return x;
+const dayNum = dayNumber;
+
+// Local copies of the thresholds: read in the hot loop without going through module bindings.
+const HEAT_C = HEATING_FLAG_C;
+const LETHAL_C = LETHAL_HEAT_C;
+const ACID_PH = ACIDITY_PH;
+const ALKALI_PH = ALKALINITY_PH;
+const CONSUMED_PCT = CONSUMED_MAX_REMAINING_PCT;
+const WINDOW_DAYS = CONSUMPTION_WINDOW_DAYS;
+
+const I_DEATHS = EVENT_INDEX['worm-deaths'];
+const I_EXODUS = EVENT_INDEX.exodus;
+const I_LETHAL = EVENT_INDEX['lethal-heat'];
+const I_HEATING = EVENT_INDEX.heating;
+const I_ACID = EVENT_INDEX.acidity;
+const I_ALKALI = EVENT_INDEX.alkalinity;
+const I_SOUR = EVENT_INDEX['sour-smell'];
+const I_ROTTEN = EVENT_INDEX['rotten-smell'];
+const I_AMMONIA = EVENT_INDEX['ammonia-smell'];
+const I_MOULD = EVENT_INDEX.mould;
+const I_WATER = EVENT_INDEX.waterlogging;
+
+function bad(trialId: string, what: string, value: unknown): never {
+  throw new RangeError(`trial ${trialId}: ${what}, got ${String(value)}`);
+}
+
+function isNumberIn(x: unknown, lo: number, hi: number): x is number {
+  return typeof x === 'number' && x >= lo && x <= hi; // NaN fails both comparisons
 }
 
 /** Validates one outcome code; throws RangeError on anything else. */
@@ -100,51 +118,210 @@ export function assertOutcome(x: unknown): Outcome {
 }
 
 /**
- * Adverse events a single check-in shows (no days). Useful for the check-in
- * screen. Throws RangeError on out-of-range readings.
+ * Reads one check-in: validates it and lowers firstDay[k] to `day` for each
+ * adverse event k it shows. Returns true when springtails were seen.
  */
-export function checkInEvents(c: CheckIn, trialId = '?'): AdverseEvent[] {
-  const out: AdverseEvent[] = [];
-  const seen = new Array<boolean>(ADVERSE_EVENTS.length).fill(false);
-  readCheckIn(c, trialId, (e) => {
-    seen[EVENT_INDEX[e]] = true;
-  });
-  for (let i = 0; i < seen.length; i++) if (seen[i]) out.push(ADVERSE_EVENTS[i]);
-  return out;
+function readCheckIn(c: CheckIn, trialId: string, firstDay: number[], day: number): boolean {
+  switch (c.wormActivity) {
+    case 'none':
+    case 'few':
+    case 'many':
+    case 'swarming':
+      break;
+    default:
+      bad(trialId, 'unknown worm activity', c.wormActivity);
+  }
+  if (!isNumberIn(c.shareRemainingPct, 0, 100)) bad(trialId, 'share remaining must be 0..100 %', c.shareRemainingPct);
+  if (c.wormDeaths === true && day < firstDay[I_DEATHS]) firstDay[I_DEATHS] = day;
+  if (c.exodus === true && day < firstDay[I_EXODUS]) firstDay[I_EXODUS] = day;
+  const t = c.bedTempC;
+  if (t != null) {
+    if (!isNumberIn(t, -60, 100)) bad(trialId, 'bed temperature must be -60..100 °C', t);
+    if (t > HEAT_C && day < firstDay[I_HEATING]) firstDay[I_HEATING] = day;
+    if (t >= LETHAL_C && day < firstDay[I_LETHAL]) firstDay[I_LETHAL] = day;
+  }
+  const p = c.pH;
+  if (p != null) {
+    if (!isNumberIn(p, 0, 14)) bad(trialId, 'pH must be 0..14', p);
+    if (p < ACID_PH && day < firstDay[I_ACID]) firstDay[I_ACID] = day;
+    if (p > ALKALI_PH && day < firstDay[I_ALKALI]) firstDay[I_ALKALI] = day;
+  }
+  switch (c.smell) {
+    case 'none':
+    case 'earthy':
+      break;
+    case 'sour':
+      if (day < firstDay[I_SOUR]) firstDay[I_SOUR] = day;
+      break;
+    case 'rotten':
+      if (day < firstDay[I_ROTTEN]) firstDay[I_ROTTEN] = day;
+      break;
+    case 'ammonia':
+      if (day < firstDay[I_AMMONIA]) firstDay[I_AMMONIA] = day;
+      break;
+    default:
+      bad(trialId, 'unknown smell', c.smell);
+  }
+  if (c.mould === true && day < firstDay[I_MOULD]) firstDay[I_MOULD] = day;
+  switch (c.moisture) {
+    case 'dry':
+    case 'damp':
+    case 'wet':
+      break;
+    case 'waterlogged':
+      if (day < firstDay[I_WATER]) firstDay[I_WATER] = day;
+      break;
+    default:
+      bad(trialId, 'unknown moisture', c.moisture);
+  }
+  const pests = c.pests;
+  if (!Array.isArray(pests)) bad(trialId, 'pests must be a list', pests);
+  let springtails = false;
+  for (let i = 0; i < pests.length; i++) {
+    const pest = pests[i];
+    switch (pest) {
+      case 'springtails':
+        springtails = true;
+        break;
+      case 'flatworms':
+      case 'mites':
+      case 'fruit-flies':
+      case 'fungus-gnats':
+      case 'ants':
+      case 'rodents': {
+        const k = EVENT_INDEX[pest];
+        if (day < firstDay[k]) firstDay[k] = day;
+        break;
+      }
+      default:
+        bad(trialId, 'unknown pest', pest);
+    }
+  }
+  return springtails;
 }
 
-function readCheckIn(c: CheckIn, trialId: string, mark: (e: AdverseEvent) => void): void {
-  if (!WORM_ACTIVITY.has(c.wormActivity)) throw new RangeError(`trial ${trialId}: unknown worm activity ${String(c.wormActivity)}`);
-  if (!SMELLS.has(c.smell)) throw new RangeError(`trial ${trialId}: unknown smell ${String(c.smell)}`);
-  if (!MOISTURE.has(c.moisture)) throw new RangeError(`trial ${trialId}: unknown moisture ${String(c.moisture)}`);
-  checkNumber(c.shareRemainingPct, 0, 100, 'share remaining (%)', trialId);
-  if (c.wormDeaths === true) mark('worm-deaths');
-  if (c.exodus === true) mark('exodus');
-  if (c.bedTempC != null) {
-    const t = checkNumber(c.bedTempC, -60, 100, 'bed temperature (°C)', trialId);
-    if (t > HEATING_FLAG_C) mark('heating');
-    if (t >= LETHAL_HEAT_C) mark('lethal-heat');
-  }
-  if (c.pH != null) {
-    const p = checkNumber(c.pH, 0, 14, 'pH', trialId);
-    if (p < ACIDITY_PH) mark('acidity');
-    if (p > ALKALINITY_PH) mark('alkalinity');
-  }
-  if (c.smell === 'sour') mark('sour-smell');
-  else if (c.smell === 'rotten') mark('rotten-smell');
-  else if (c.smell === 'ammonia') mark('ammonia-smell');
-  if (c.mould === true) mark('mould');
-  if (c.moisture === 'waterlogged') mark('waterlogging');
-  if (!Array.isArray(c.pests)) throw new RangeError(`trial ${trialId}: pests must be a list`);
-  for (const p of c.pests) {
-    if (p === 'springtails') continue;
-    if (!ALL_PESTS.includes(p)) throw new RangeError(`trial ${trialId}: unknown pest ${String(p)}`);
-    mark(p as AdverseEvent);
-  }
+/**
+ * Adverse events a single check-in shows (no days). Useful for the check-in
+ * screen. Throws RangeError on out-of-range readings or unknown codes.
+ */
+export function checkInEvents(c: CheckIn, trialId = '?'): AdverseEvent[] {
+  const firstDay = new Array<number>(ADVERSE_EVENTS.length).fill(Infinity);
+  readCheckIn(c, trialId, firstDay, 0);
+  return ADVERSE_EVENTS.filter((_, i) => firstDay[i] === 0);
+}
+
+function byDayThenEvent(a: AdverseEventRecord, b: AdverseEventRecord): number {
+  return a.firstDay - b.firstDay || EVENT_INDEX[a.event] - EVENT_INDEX[b.event];
 }
 
 function dayWord(d: number): string {
   return `day ${d}`;
+}
+
+/** What the rules read off a trial's check-ins (before words). */
+interface Reading {
+  n: number;
+  firstWormDay: number;
+  lastDay: number;
+  lastShare: number;
+  consumedDay: number;
+  springtails: boolean;
+  /** Bit k set when ADVERSE_EVENTS[k] was seen. */
+  eventMask: number;
+}
+
+/** Scratch for first days per event; a cache only, reset on every call. */
+const FIRST_DAY = new Array<number>(ADVERSE_EVENTS.length).fill(Infinity);
+
+/** Reads all check-ins (validating them) into FIRST_DAY and a Reading. */
+function readTrial(trial: Pick<TrialInput, 'id' | 'status' | 'startDate' | 'checkIns' | 'outcomeOverride'>): Reading {
+  const id = trial.id;
+  if (trial.status !== 'running' && trial.status !== 'closed' && trial.status !== 'abandoned') {
+    throw new RangeError(`trial ${id}: unknown status ${String(trial.status)}`);
+  }
+  const override = trial.outcomeOverride ?? null;
+  if (override !== null) assertOutcome(override);
+  const start = dayNum(trial.startDate);
+  const checkIns = trial.checkIns ?? [];
+  if (!Array.isArray(checkIns)) throw new RangeError(`trial ${id}: checkIns must be a list`);
+  const firstDay = FIRST_DAY;
+  firstDay.fill(Infinity);
+  const n = checkIns.length;
+  let firstWormDay = Infinity;
+  let lastDay = -Infinity;
+  let lastShare = Infinity;
+  let springtails = false;
+  // Days with at most CONSUMED_PCT % left; which count depends on firstWormDay, known after the loop.
+  let lowShareDays: number[] | null = null;
+  for (let i = 0; i < n; i++) {
+    const c = checkIns[i];
+    const day = dayNum(c.date) - start;
+    if (day < 0) throw new RangeError(`trial ${id}: check-in ${c.date} is before the start ${trial.startDate}`);
+    if (readCheckIn(c, id, firstDay, day)) springtails = true;
+    if (c.wormActivity !== 'none' && day < firstWormDay) firstWormDay = day;
+    const s = c.shareRemainingPct;
+    if (day > lastDay) {
+      lastDay = day;
+      lastShare = s;
+    } else if (day === lastDay && s < lastShare) lastShare = s;
+    if (s <= CONSUMED_PCT) (lowShareDays ??= []).push(day);
+  }
+  // First day the consumed threshold is met with worms seen by then.
+  let consumedDay = Infinity;
+  if (lowShareDays !== null) {
+    for (const d of lowShareDays) if (d >= firstWormDay && d < consumedDay) consumedDay = d;
+  }
+  let eventMask = 0;
+  for (let k = 0; k < firstDay.length; k++) if (firstDay[k] !== Infinity) eventMask |= 1 << k;
+  return { n, firstWormDay, lastDay, lastShare, consumedDay, springtails, eventMask };
+}
+
+/** The outcome the check-ins alone give (rules 2–5 at the top of this file). */
+function outcomeFromReading(r: Reading, status: TrialInput['status']): Outcome | null {
+  if (r.n === 0) return null;
+  if (r.eventMask & ((1 << I_DEATHS) | (1 << I_EXODUS))) return 'harm';
+  if (r.consumedDay <= WINDOW_DAYS) return 'consumed';
+  if (status === 'closed') return r.firstWormDay === Infinity ? 'rejected' : 'partial';
+  return null;
+}
+
+/** Days to consumption: observed, or the last check-in when the owner confirmed consumption. */
+function consumptionDays(r: Reading, override: Outcome | null): number | null {
+  if (r.consumedDay !== Infinity) return r.consumedDay;
+  if (override === 'consumed' && r.n > 0) return r.lastDay;
+  return null;
+}
+
+/** Compact classification used by aggregation (same rules as classifyTrial, no words). */
+export interface TrialSummary {
+  outcome: Outcome | null;
+  eventMask: number;
+  daysToConsumption: number | null;
+  followUpDays: number | null;
+  springtails: boolean;
+}
+
+/**
+ * The same classification as classifyTrial without the words and event
+ * records (aggregation hot path). Throws like classifyTrial.
+ */
+export function summariseTrial(trial: Pick<TrialInput, 'id' | 'status' | 'startDate' | 'checkIns' | 'outcomeOverride'>): TrialSummary {
+  const r = readTrial(trial);
+  const override = trial.outcomeOverride ?? null;
+  return {
+    outcome: override ?? outcomeFromReading(r, trial.status),
+    eventMask: r.eventMask,
+    daysToConsumption: consumptionDays(r, override),
+    followUpDays: r.n === 0 ? null : r.lastDay,
+    springtails: r.springtails,
+  };
+}
+
+/** Adverse events in an event mask, in ADVERSE_EVENTS order. */
+export function eventsInMask(mask: number): AdverseEvent[] {
+  const out: AdverseEvent[] = [];
+  for (let k = 0; k < ADVERSE_EVENTS.length; k++) if (mask & (1 << k)) out.push(ADVERSE_EVENTS[k]);
+  return out;
 }
 
 /**
@@ -157,111 +334,58 @@ function dayWord(d: number): string {
 export function classifyTrial(
   trial: Pick<TrialInput, 'id' | 'status' | 'startDate' | 'checkIns' | 'outcomeOverride'>,
 ): TrialClassification {
-  const id = trial.id;
-  if (trial.status !== 'running' && trial.status !== 'closed' && trial.status !== 'abandoned') {
-    throw new RangeError(`trial ${id}: unknown status ${String(trial.status)}`);
-  }
+  const r = readTrial(trial);
+  const firstDay = FIRST_DAY;
   const override = trial.outcomeOverride ?? null;
-  if (override !== null) assertOutcome(override);
-  const start = dayNumber(trial.startDate);
-  const checkIns = trial.checkIns ?? [];
-  if (!Array.isArray(checkIns)) throw new RangeError(`trial ${id}: checkIns must be a list`);
-
-  const n = checkIns.length;
-  const days = new Array<number>(n);
-  const firstDay = new Array<number>(ADVERSE_EVENTS.length).fill(Infinity);
-  let firstWormDay = Infinity;
-  let lastDay = -Infinity;
-  let springtails = false;
-  let currentDay = 0;
-  const mark = (e: AdverseEvent) => {
-    const k = EVENT_INDEX[e];
-    if (currentDay < firstDay[k]) firstDay[k] = currentDay;
-  };
-  for (let i = 0; i < n; i++) {
-    const c = checkIns[i];
-    const day = dayNumber(c.date) - start;
-    if (day < 0) throw new RangeError(`trial ${id}: check-in ${c.date} is before the start ${trial.startDate}`);
-    days[i] = day;
-    currentDay = day;
-    readCheckIn(c, id, mark);
-    if (c.wormActivity !== 'none' && day < firstWormDay) firstWormDay = day;
-    if (day > lastDay) lastDay = day;
-    if (c.pests.includes('springtails')) springtails = true;
-  }
-
-  // First day the consumed threshold is met with worms seen by then (second pass: needs firstWormDay).
-  let consumedDay = Infinity;
-  let lastShare = Infinity;
-  for (let i = 0; i < n; i++) {
-    const s = checkIns[i].shareRemainingPct;
-    if (s <= CONSUMED_MAX_REMAINING_PCT && days[i] >= firstWormDay && days[i] < consumedDay) consumedDay = days[i];
-    if (days[i] === lastDay && s < lastShare) lastShare = s;
-  }
+  const fromCheckIns = outcomeFromReading(r, trial.status);
 
   const adverseEvents: AdverseEventRecord[] = [];
   for (let k = 0; k < ADVERSE_EVENTS.length; k++) {
     if (firstDay[k] !== Infinity) adverseEvents.push({ event: ADVERSE_EVENTS[k], firstDay: firstDay[k] });
   }
-  adverseEvents.sort((a, b) => a.firstDay - b.firstDay || EVENT_INDEX[a.event] - EVENT_INDEX[b.event]);
+  adverseEvents.sort(byDayThenEvent);
 
   const reasons: string[] = [];
-  const deathsDay = firstDay[EVENT_INDEX['worm-deaths']];
-  const exodusDay = firstDay[EVENT_INDEX.exodus];
-  let fromCheckIns: Outcome | null = null;
-  if (n === 0) {
-    reasons.push('no check-ins yet');
-  } else if (deathsDay !== Infinity || exodusDay !== Infinity) {
-    fromCheckIns = 'harm';
+  const deathsDay = firstDay[I_DEATHS];
+  const exodusDay = firstDay[I_EXODUS];
+  if (r.n === 0) reasons.push('no check-ins yet');
+  else if (fromCheckIns === 'harm') {
     if (deathsDay !== Infinity) reasons.push(`worm deaths reported on ${dayWord(deathsDay)}`);
     if (exodusDay !== Infinity) reasons.push(`worms left the bed on ${dayWord(exodusDay)}`);
-  } else if (consumedDay <= CONSUMPTION_WINDOW_DAYS) {
-    fromCheckIns = 'consumed';
+  } else if (fromCheckIns === 'consumed') {
     reasons.push(
-      `at most ${CONSUMED_MAX_REMAINING_PCT}% left with worms working it on ${dayWord(consumedDay)}, within the ${CONSUMPTION_WINDOW_DAYS}-day window`,
+      `at most ${CONSUMED_MAX_REMAINING_PCT}% left with worms working it on ${dayWord(r.consumedDay)}, within the ${CONSUMPTION_WINDOW_DAYS}-day window`,
     );
-  } else if (trial.status === 'closed') {
-    if (firstWormDay === Infinity) {
-      fromCheckIns = 'rejected';
-      reasons.push('no worms seen in the feedstock at any check-in');
-    } else {
-      fromCheckIns = 'partial';
-      if (consumedDay !== Infinity) {
-        reasons.push(`consumed only on ${dayWord(consumedDay)}, after the ${CONSUMPTION_WINDOW_DAYS}-day window`);
-      } else {
-        reasons.push(`worms worked it from ${dayWord(firstWormDay)} but ${lastShare}% was left at the last check-in (${dayWord(lastDay)})`);
-      }
-    }
+  } else if (fromCheckIns === 'rejected') {
+    reasons.push('no worms seen in the feedstock at any check-in');
+  } else if (fromCheckIns === 'partial') {
+    reasons.push(
+      r.consumedDay !== Infinity
+        ? `consumed only on ${dayWord(r.consumedDay)}, after the ${CONSUMPTION_WINDOW_DAYS}-day window`
+        : `worms worked it from ${dayWord(r.firstWormDay)} but ${r.lastShare}% was left at the last check-in (${dayWord(r.lastDay)})`,
+    );
   } else {
-    reasons.push(`${trial.status} with no decisive evidence yet (last check-in ${dayWord(lastDay)})`);
+    reasons.push(`${trial.status} with no decisive evidence yet (last check-in ${dayWord(r.lastDay)})`);
   }
-
-  let outcome: Outcome | null = fromCheckIns;
-  let outcomeSource: TrialClassification['outcomeSource'] = fromCheckIns === null ? null : 'check-ins';
   if (override !== null) {
-    outcome = override;
-    outcomeSource = 'owner';
     reasons.unshift(
       fromCheckIns === override || fromCheckIns === null
         ? `the owner confirmed the outcome: ${override}`
         : `the owner confirmed the outcome: ${override} (check-ins alone would give ${fromCheckIns})`,
     );
   }
-
-  let daysToConsumption: number | null = consumedDay === Infinity ? null : consumedDay;
-  if (daysToConsumption === null && override === 'consumed' && n > 0) {
-    daysToConsumption = lastDay;
-    reasons.push(`time to consumption taken as the last check-in (${dayWord(lastDay)}) on the owner's word`);
+  const daysToConsumption = consumptionDays(r, override);
+  if (r.consumedDay === Infinity && daysToConsumption !== null) {
+    reasons.push(`time to consumption taken as the last check-in (${dayWord(r.lastDay)}) on the owner's word`);
   }
-
   return {
-    outcome,
-    outcomeSource,
+    outcome: override ?? fromCheckIns,
+    outcomeSource: override !== null ? 'owner' : fromCheckIns === null ? null : 'check-ins',
     adverseEvents,
     daysToConsumption,
     censored: daysToConsumption === null,
-    followUpDays: n === 0 ? null : lastDay,
-    harmless: springtails ? ['springtails'] : [],
+    followUpDays: r.n === 0 ? null : r.lastDay,
+    harmless: r.springtails ? ['springtails'] : [],
     reasons,
   };
 }
