@@ -171,15 +171,15 @@ export function whatWouldChangeText(
   scope: 'group' | 'setting',
 ): string {
   const trials = w.trials === 1 ? 'trial' : 'trials';
+  const prep = scope === 'setting' ? `${PREPARATION_WORDS[w.preparation]} ` : '';
   const what =
     w.kind === 'consumed'
-      ? `${capitalise(countWord(w.trials))} more consumed ${trials}`
-      : `${capitalise(countWord(w.trials))} more ${trials} with harm`;
-  const prep = scope === 'setting' ? ` of ${PREPARATION_WORDS[w.preparation]} material` : '';
+      ? `${capitalise(countWord(w.trials))} more consumed ${prep}${trials}`
+      : `${capitalise(countWord(w.trials))} more ${prep}${trials} with harm`;
   const fromOthers = w.from === 'unsettled' ? ', from other keepers,' : '';
   const target = scope === 'setting' ? 'this setting' : 'it';
   const move = w.from === 'unsettled' ? `would settle ${target} at ${VERDICT_LABELS[w.to]}` : `would move ${target} to ${VERDICT_LABELS[w.to]}`;
-  return `${what}${prep} at ${formatLoad(w.loadKgM2)} kg/m²${fromOthers} ${move}.`;
+  return `${what} at ${formatLoad(w.loadKgM2)} kg/m²${fromOthers} ${move}.`;
 }
 
 /** Everything the setting sentences need. */
