@@ -5,12 +5,12 @@
  * from integer counts.
  */
 import { computeCautions } from './cautions';
-import { ceilingEstimateFromPooled, hypotheticalCeiling, poolByLoad, type PooledLoads } from './ceiling';
+import { ceilingEstimateFromPooled, hypotheticalCeiling, poolLoads, type PooledLoads } from './ceiling';
 import { gradeCertainty } from './certainty';
 import { groupSentences, settingSentences, whatWouldChangeText } from './derivation';
-import { normaliseTrial } from './normalise';
+import { normaliseTrial, roundQuantity } from './normalise';
 import { summariseTrial, type TrialSummary } from './outcome';
-import { kaplanMeier, type SurvivalObservation } from './survival';
+import { kaplanMeierFromTimes } from './survival';
 import {
   BASELINE_PREPARATION,
   DRIVING_TRIAL_LIMIT,
@@ -44,8 +44,8 @@ import type {
 import { compareVerdicts, groupVerdictRule, isSettled, settingVerdictRule, verdictLabel } from './verdict';
 import { proportionEstimate, wilson } from './wilson';
 
-/** A trial after normalisation and classification. */
-export interface PreparedTrial {
+/** A trial after normalisation and classification (the TrialSummary fields, flattened). */
+export interface PreparedTrial extends TrialSummary {
   id: string;
   contributorId: string;
   setting: Setting;
@@ -55,9 +55,6 @@ export interface PreparedTrial {
   hasControl: boolean;
   hasPhotos: boolean;
   hasCheckIns: boolean;
-  /** Adverse events seen, bit k = ADVERSE_EVENTS[k]. */
-  eventMask: number;
-  classification: TrialSummary;
 }
 
 /**
@@ -74,21 +71,34 @@ export function prepareTrial(t: TrialInput): PreparedTrial {
   if (PREP_INDEX[t.preparation] === undefined) throw new RangeError(`trial ${t.id}: unknown preparation ${String(t.preparation)}`);
   if (!Number.isInteger(t.photoCount) || t.photoCount < 0) throw new RangeError(`trial ${t.id}: photoCount must be a whole number ≥ 0`);
   if (typeof t.hasControl !== 'boolean') throw new RangeError(`trial ${t.id}: hasControl must be true or false`);
-  const loads = normalise(t);
-  const classification = summarise(t);
+  const loadKgM2 = t.dose ? normalise(t).surfaceLoadKgM2 : fastLoad(t);
+  const c = summarise(t);
   return {
     id: t.id,
     contributorId: t.contributorId,
     setting: t.setting,
     preparation: t.preparation,
     status: t.status,
-    loadKgM2: loads.surfaceLoadKgM2,
+    loadKgM2,
     hasControl: t.hasControl,
     hasPhotos: t.photoCount > 0,
-    hasCheckIns: classification.followUpDays !== null,
-    eventMask: classification.eventMask,
-    classification,
+    hasCheckIns: c.followUpDays !== null,
+    outcome: c.outcome,
+    eventMask: c.eventMask,
+    daysToConsumption: c.daysToConsumption,
+    followUpDays: c.followUpDays,
+    springtails: c.springtails,
   };
+}
+
+/** Surface load entered directly: same validation and rounding as normaliseTrial, without its result object. */
+function fastLoad(t: TrialInput): number {
+  const x = t.surfaceLoadKgM2;
+  if (typeof x === 'number' && x > 0 && x < Infinity && t.layerDepthCm == null && t.feedRatio == null) {
+    const r = roundQuantity(x);
+    if (r > 0) return r;
+  }
+  return normalise(t).surfaceLoadKgM2; // throws the proper RangeError for bad input
 }
 
 /** Internal state kept per group for the hypothetical search. */
@@ -102,8 +112,8 @@ interface GroupState {
   harm: number;
   finishedContributors: number;
   candidates: number[];
-  /** [kind][loadIndex][k-1] → provisional verdict after adding k trials. */
-  table: (GroupVerdict | null)[][][] | null;
+  /** [kind][loadIndex][k-1] → provisional verdict after adding k trials (undefined until computed). */
+  table: (GroupVerdict | null | undefined)[][][] | null;
   aggregate: GroupAggregate | null;
 }
 
@@ -156,16 +166,18 @@ function hypotheticalProvisional(st: GroupState, kind: (typeof KINDS)[number], l
   }).verdict;
 }
 
-function buildTable(st: GroupState): (GroupVerdict | null)[][][] {
-  if (st.table) return st.table;
-  st.table = KINDS.map((kind) =>
-    st.candidates.map((load) => {
-      const row: (GroupVerdict | null)[] = [];
-      for (let k = 1; k <= MAX_HYPOTHETICAL_TRIALS; k++) row.push(hypotheticalProvisional(st, kind, load, k));
-      return row;
-    }),
-  );
-  return st.table;
+/** Provisional verdict after k hypothetical trials, computed on first use and kept (the search stops early). */
+function tableEntry(st: GroupState, ki: number, li: number, k: number): GroupVerdict | null {
+  if (!st.table) {
+    st.table = KINDS.map(() => st.candidates.map(() => new Array<GroupVerdict | null | undefined>(MAX_HYPOTHETICAL_TRIALS).fill(undefined)));
+  }
+  const row = st.table[ki][li];
+  let v = row[k - 1];
+  if (v === undefined) {
+    v = hypotheticalProvisional(st, KINDS[ki], st.candidates[li], k);
+    row[k - 1] = v;
+  }
+  return v;
 }
 
 function moves(kind: (typeof KINDS)[number], from: Verdict, to: Verdict): boolean {
@@ -175,22 +187,49 @@ function moves(kind: (typeof KINDS)[number], from: Verdict, to: Verdict): boolea
   return kind === 'consumed' ? d > 0 : d < 0;
 }
 
+/**
+ * Smallest k in 1..MAX_HYPOTHETICAL_TRIALS for which `verdictAt(k)` moves the
+ * verdict in the direction of `kind`, or null. The rules are monotone in k
+ * (more consumed trials never worsen, more harm trials never improve, and
+ * settling only grows with k — the property tests hold this), so k = MAX is
+ * tried first and a binary search finds the smallest: at most 4 evaluations.
+ */
+function firstMovingK(kind: (typeof KINDS)[number], current: Verdict, verdictAt: (k: number) => Verdict): { k: number; to: Verdict } | null {
+  if (!moves(kind, current, verdictAt(MAX_HYPOTHETICAL_TRIALS))) return null;
+  let lo = 1;
+  let hi = MAX_HYPOTHETICAL_TRIALS;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (moves(kind, current, verdictAt(mid))) hi = mid;
+    else lo = mid + 1;
+  }
+  return { k: lo, to: verdictAt(lo) };
+}
+
+/** A kind worth searching: a feed verdict cannot improve and an avoid verdict cannot get worse. */
+function searchable(kind: (typeof KINDS)[number], current: Verdict): boolean {
+  return !(kind === 'consumed' && current === 'feed') && !(kind === 'harm' && current === 'avoid');
+}
+
+/** Better of two candidate changes: fewer trials, then the lower load, then the earlier preparation. */
+function preferred(a: Omit<WhatWouldChange, 'text'> | null, b: Omit<WhatWouldChange, 'text'>): Omit<WhatWouldChange, 'text'> {
+  if (a === null) return b;
+  if (b.trials !== a.trials) return b.trials < a.trials ? b : a;
+  if (b.loadKgM2 !== a.loadKgM2) return b.loadKgM2 < a.loadKgM2 ? b : a;
+  return prepIndex(b.preparation) < prepIndex(a.preparation) ? b : a;
+}
+
 function groupWhatWouldChange(st: GroupState, current: Verdict): WhatWouldChange[] {
-  const table = buildTable(st);
   const out: WhatWouldChange[] = [];
   KINDS.forEach((kind, ki) => {
+    if (!searchable(kind, current)) return;
     let best: Omit<WhatWouldChange, 'text'> | null = null;
-    for (let k = 1; k <= MAX_HYPOTHETICAL_TRIALS && best === null; k++) {
-      // candidates are ascending: the first hit at this k is the lowest load
-      for (let li = 0; li < st.candidates.length; li++) {
-        const prov = table[ki][li][k - 1];
-        const settled = isSettled(st.finished + k, st.finishedContributors + k);
-        const to: Verdict = settled && prov !== null ? prov : 'unsettled';
-        if (moves(kind, current, to)) {
-          best = { kind, trials: k, loadKgM2: st.candidates[li], preparation: st.preparation, from: current, to };
-          break;
-        }
-      }
+    for (let li = 0; li < st.candidates.length; li++) {
+      const hit = firstMovingK(kind, current, (k) => {
+        const prov = tableEntry(st, ki, li, k);
+        return isSettled(st.finished + k, st.finishedContributors + k) && prov !== null ? prov : 'unsettled';
+      });
+      if (hit) best = preferred(best, { kind, trials: hit.k, loadKgM2: st.candidates[li], preparation: st.preparation, from: current, to: hit.to });
     }
     if (best) out.push({ ...best, text: whatWouldChangeText(best, 'group') });
   });
@@ -200,12 +239,33 @@ function groupWhatWouldChange(st: GroupState, current: Verdict): WhatWouldChange
 function buildGroup(setting: Setting, preparation: Preparation, trials: readonly PreparedTrial[], opts: Required<AggregateOptions>): GroupState {
   const contributors = new Set<string>();
   const finishedContributors = new Set<string>();
-  const points: { id: string; loadKgM2: number; success: boolean }[] = [];
-  const km: SurvivalObservation[] = [];
+  // first pass: sizes of the typed arrays
+  let finished = 0;
+  let consumed = 0;
+  let followed = 0;
+  let events = 0;
+  for (const t of trials) {
+    const c = t;
+    if (c.outcome !== null) {
+      finished++;
+      if (c.outcome === 'consumed') consumed++;
+    }
+    if (c.followUpDays !== null) {
+      followed++;
+      if (c.daysToConsumption !== null) events++;
+    }
+  }
+  const allLoads = new Float64Array(finished);
+  const successLoads = new Float64Array(consumed);
+  const eventTimes = new Float64Array(events);
+  const censorTimes = new Float64Array(followed - events);
+  let fi = 0;
+  let si = 0;
+  let ei = 0;
+  let ci = 0;
   let springtails = 0;
   let running = 0;
   let closed = 0;
-  let consumed = 0;
   let partial = 0;
   let rejected = 0;
   let harmCount = 0;
@@ -215,26 +275,27 @@ function buildGroup(setting: Setting, preparation: Preparation, trials: readonly
     contributors.add(t.contributorId);
     if (t.status === 'running') running++;
     else if (t.status === 'closed') closed++;
-    const c = t.classification;
+    const c = t;
     const o: Outcome | null = c.outcome;
     if (o !== null) {
-      if (o === 'consumed') consumed++;
+      if (o === 'consumed') successLoads[si++] = t.loadKgM2;
       else if (o === 'partial') partial++;
       else if (o === 'rejected') rejected++;
       else harmCount++;
+      allLoads[fi++] = t.loadKgM2;
       finishedContributors.add(t.contributorId);
       if (t.hasControl) withControl++;
       if (t.hasPhotos) withPhotos++;
-      points.push({ id: t.id, loadKgM2: t.loadKgM2, success: o === 'consumed' });
     }
     if (c.followUpDays !== null) {
-      km.push(c.daysToConsumption !== null ? { time: c.daysToConsumption, event: true } : { time: c.followUpDays, event: false });
+      if (c.daysToConsumption !== null) eventTimes[ei++] = c.daysToConsumption;
+      else censorTimes[ci++] = c.followUpDays;
     }
     if (c.springtails) springtails++;
   }
   const counts: GroupCounts = {
     trials: trials.length,
-    finished: points.length,
+    finished,
     running,
     closed,
     abandoned: trials.length - running - closed,
@@ -250,9 +311,11 @@ function buildGroup(setting: Setting, preparation: Preparation, trials: readonly
 
   const success = proportionEstimate(counts.consumed, counts.finished);
   const harm = proportionEstimate(counts.harm, counts.finished);
-  const pooled = poolByLoad(points);
-  const ceiling = ceilingEstimateFromPooled(pooled, points);
-  const timeToConsumption = kaplanMeier(km);
+  const pooled = poolLoads(allLoads, successLoads);
+  const ceiling = ceilingEstimateFromPooled(pooled, (x) =>
+    trials.filter((t) => t.outcome !== null && t.loadKgM2 === x).map((t) => t.id),
+  );
+  const timeToConsumption = kaplanMeierFromTimes(eventTimes, censorTimes);
   const cautions = computeCautions(trials);
 
   // Disagreement with the monotone fit, for inconsistency (fit ≥ FIT_PREDICTS_CONSUMED predicts consumed).
@@ -313,18 +376,18 @@ function buildGroup(setting: Setting, preparation: Preparation, trials: readonly
     },
   ];
 
-  const finishedPick = (t: PreparedTrial) => t.classification.outcome !== null;
+  const finishedPick = (t: PreparedTrial) => t.outcome !== null;
   let driving: string[];
   const prov = rule.verdict;
   if (verdict === 'unsettled' || prov === null) driving = firstIds(trials, finishedPick);
-  else if (prov === 'avoid') driving = firstIds(trials, (t) => t.classification.outcome === 'harm' || t.classification.outcome === 'rejected');
-  else if (prov === 'feed') driving = firstIds(trials, (t) => t.classification.outcome === 'consumed');
+  else if (prov === 'avoid') driving = firstIds(trials, (t) => t.outcome === 'harm' || t.outcome === 'rejected');
+  else if (prov === 'feed') driving = firstIds(trials, (t) => t.outcome === 'consumed');
   else {
     const c = ceiling.kgM2;
     driving = firstIds(trials, (t) =>
       c === null
-        ? t.classification.outcome !== null && t.classification.outcome !== 'consumed'
-        : t.classification.outcome !== null && (t.loadKgM2 === c || (t.loadKgM2 > c && t.classification.outcome !== 'consumed')),
+        ? t.outcome !== null && t.outcome !== 'consumed'
+        : t.outcome !== null && (t.loadKgM2 === c || (t.loadKgM2 > c && t.outcome !== 'consumed')),
     );
   }
 
@@ -426,30 +489,18 @@ function settingWhatWouldChange(
   const out: WhatWouldChange[] = [];
   for (let ki = 0; ki < KINDS.length; ki++) {
     const kind = KINDS[ki];
+    if (!searchable(kind, current)) continue;
     let best: Omit<WhatWouldChange, 'text'> | null = null;
-    for (let k = 1; k <= MAX_HYPOTHETICAL_TRIALS && best === null; k++) {
-      const settled = isSettled(finished + k, contributors + k);
-      let bestHere: Omit<WhatWouldChange, 'text'> | null = null;
-      for (let gi = 0; gi < pool.length; gi++) {
-        const st = pool[gi];
-        const table = buildTable(st);
-        for (let li = 0; li < st.candidates.length; li++) {
-          const groups = base.map((g, j) => (j === gi ? { ...g, provisional: table[ki][li][k - 1], finished: g.finished + k } : g));
+    for (let gi = 0; gi < pool.length; gi++) {
+      const st = pool[gi];
+      for (let li = 0; li < st.candidates.length; li++) {
+        const hit = firstMovingK(kind, current, (k) => {
+          const groups = base.map((g, j) => (j === gi ? { ...g, provisional: tableEntry(st, ki, li, k), finished: g.finished + k } : g));
           const r = settingVerdictRule(groups);
-          const to: Verdict = settled && r.verdict !== null ? r.verdict : 'unsettled';
-          if (!moves(kind, current, to)) continue;
-          const cand = { kind, trials: k, loadKgM2: st.candidates[li], preparation: st.preparation, from: current, to };
-          if (
-            bestHere === null ||
-            cand.loadKgM2 < bestHere.loadKgM2 ||
-            (cand.loadKgM2 === bestHere.loadKgM2 && prepIndex(cand.preparation) < prepIndex(bestHere.preparation))
-          ) {
-            bestHere = cand;
-          }
-          break; // ascending loads: the first hit is the lowest for this group
-        }
+          return isSettled(finished + k, contributors + k) && r.verdict !== null ? r.verdict : 'unsettled';
+        });
+        if (hit) best = preferred(best, { kind, trials: hit.k, loadKgM2: st.candidates[li], preparation: st.preparation, from: current, to: hit.to });
       }
-      best = bestHere;
     }
     if (best) out.push({ ...best, text: whatWouldChangeText(best, 'setting') });
   }
@@ -461,7 +512,7 @@ function buildSetting(setting: Setting, states: readonly GroupState[], trialsInS
   const finishedContributors = new Set<string>();
   let finished = 0;
   for (const t of trialsInSetting) {
-    if (t.classification.outcome !== null) {
+    if (t.outcome !== null) {
       finished++;
       finishedContributors.add(t.contributorId);
     }

@@ -37,6 +37,7 @@ export function computeCautions(trials: readonly CautionTrial[]): Caution[] {
   const maxWithout = new Array<number>(k).fill(-Infinity);
   const ids: string[][] = Array.from({ length: k }, () => []);
   let outOf = 0;
+  let maxWithoutAny = -Infinity;
   for (let ti = 0; ti < trials.length; ti++) {
     const t = trials[ti];
     if (!t.hasCheckIns) continue;
@@ -51,6 +52,11 @@ export function computeCautions(trials: readonly CautionTrial[]): Caution[] {
       }
     }
     const x = t.loadKgM2;
+    if (mask === 0) {
+      // no events: only "highest load without the event" changes, for every event alike
+      if (x > maxWithoutAny) maxWithoutAny = x;
+      continue;
+    }
     for (let i = 0; i < k; i++) {
       if (mask & (1 << i)) {
         count[i]++;
@@ -60,6 +66,7 @@ export function computeCautions(trials: readonly CautionTrial[]): Caution[] {
       } else if (x > maxWithout[i]) maxWithout[i] = x;
     }
   }
+  for (let i = 0; i < k; i++) if (maxWithoutAny > maxWithout[i]) maxWithout[i] = maxWithoutAny;
   const out: Caution[] = [];
   for (let i = 0; i < k; i++) {
     if (count[i] === 0) continue;

@@ -66,30 +66,49 @@ function meets(sum: number, weight: number, f: ThresholdFraction): boolean {
  */
 export function poolByLoad(points: readonly { loadKgM2: number; success: boolean }[]): PooledLoads {
   const n = points.length;
-  const xs = new Float64Array(n);
+  let ns = 0;
+  for (let i = 0; i < n; i++) if (points[i].success) ns++;
+  const all = new Float64Array(n);
+  const succ = new Float64Array(ns);
+  let k = 0;
   for (let i = 0; i < n; i++) {
-    const x = points[i].loadKgM2;
-    if (!Number.isFinite(x) || x <= 0) throw new RangeError(`load must be finite and > 0, got ${String(x)}`);
-    xs[i] = x;
+    all[i] = points[i].loadKgM2;
+    if (points[i].success) succ[k++] = points[i].loadKgM2;
   }
-  // Sort indices by load via a typed-array sort of (load, index) would need packing; sort a copy and count instead.
-  const order = Array.from({ length: n }, (_, i) => i);
-  order.sort((a, b) => xs[a] - xs[b]);
+  return poolLoads(all, succ);
+}
+
+/**
+ * Pools loads given as two arrays: every finished trial's load, and the loads
+ * of the consumed ones (a sub-multiset). Sorts both in place (native numeric
+ * sort) and merges. Throws RangeError on a load that is not finite and > 0.
+ */
+export function poolLoads(allLoads: Float64Array, successLoads: Float64Array): PooledLoads {
+  for (let i = 0; i < allLoads.length; i++) {
+    const x = allLoads[i];
+    if (!(x > 0) || x === Infinity) throw new RangeError(`load must be finite and > 0, got ${String(x)}`);
+  }
+  allLoads.sort();
+  successLoads.sort();
   const loads: number[] = [];
   const successes: number[] = [];
   const weights: number[] = [];
-  for (let k = 0; k < n; k++) {
-    const i = order[k];
-    const x = xs[i];
-    const last = loads.length - 1;
-    if (last >= 0 && loads[last] === x) {
-      weights[last] += 1;
-      if (points[i].success) successes[last] += 1;
-    } else {
-      loads.push(x);
-      weights.push(1);
-      successes.push(points[i].success ? 1 : 0);
+  let j = 0;
+  for (let i = 0; i < allLoads.length; ) {
+    const x = allLoads[i];
+    let w = 0;
+    while (i < allLoads.length && allLoads[i] === x) {
+      w++;
+      i++;
     }
+    let s = 0;
+    while (j < successLoads.length && successLoads[j] === x) {
+      s++;
+      j++;
+    }
+    loads.push(x);
+    weights.push(w);
+    successes.push(s);
   }
   return { loads, successes, weights };
 }
@@ -313,22 +332,18 @@ export function fitBlocks(pooled: PooledLoads, blocks: readonly PavaBlock[]): Fi
  */
 export function doseCeiling(points: readonly CeilingPoint[], threshold: number = CEILING_SUCCESS_THRESHOLD): CeilingEstimate {
   const pooled = poolByLoad(points);
-  return ceilingEstimateFromPooled(pooled, points, threshold);
+  return ceilingEstimateFromPooled(pooled, (x) => points.filter((p) => p.loadKgM2 === x).map((p) => p.id), threshold);
 }
 
-/** As `doseCeiling`, with the pooled loads already computed. */
+/** As `doseCeiling`, with the pooled loads already computed; `idsAtLoad` lists the trials at a load. */
 export function ceilingEstimateFromPooled(
   pooled: PooledLoads,
-  points: readonly CeilingPoint[],
+  idsAtLoad: (loadKgM2: number) => string[],
   threshold: number = CEILING_SUCCESS_THRESHOLD,
 ): CeilingEstimate {
   const core = ceilingFromPooled(pooled, threshold);
   const m = pooled.loads.length;
-  const atCeiling: string[] = [];
-  if (core.kgM2 !== null) {
-    for (const p of points) if (p.loadKgM2 === core.kgM2) atCeiling.push(p.id);
-    atCeiling.sort(byString);
-  }
+  const atCeiling = core.kgM2 === null ? [] : idsAtLoad(core.kgM2).slice().sort(byString);
   return {
     kgM2: core.kgM2,
     threshold,

@@ -34,14 +34,9 @@ export const KM_METHOD = 'Kaplan–Meier; Greenwood variance; log-log band; medi
  * Throws RangeError on a time that is not finite and ≥ 0, or z not > 0.
  */
 export function kaplanMeier(observations: readonly SurvivalObservation[], z: number = WILSON_Z): SurvivalEstimate {
-  if (!Number.isFinite(z) || z <= 0) throw new RangeError('z must be > 0');
   const n = observations.length;
   let ne = 0;
-  for (let i = 0; i < n; i++) {
-    const t = observations[i].time;
-    if (typeof t !== 'number' || !Number.isFinite(t) || t < 0) throw new RangeError(`time must be finite and ≥ 0, got ${String(t)}`);
-    if (observations[i].event) ne++;
-  }
+  for (let i = 0; i < n; i++) if (observations[i].event) ne++;
   const ev = new Float64Array(ne);
   const ce = new Float64Array(n - ne);
   let a = 0;
@@ -50,6 +45,23 @@ export function kaplanMeier(observations: readonly SurvivalObservation[], z: num
     if (observations[i].event) ev[a++] = observations[i].time;
     else ce[b++] = observations[i].time;
   }
+  return kaplanMeierFromTimes(ev, ce, z);
+}
+
+/**
+ * As `kaplanMeier`, from event times and censoring times (sorted in place).
+ * Throws RangeError on a time that is not finite and ≥ 0, or z not > 0.
+ */
+export function kaplanMeierFromTimes(ev: Float64Array, ce: Float64Array, z: number = WILSON_Z): SurvivalEstimate {
+  if (!Number.isFinite(z) || z <= 0) throw new RangeError('z must be > 0');
+  for (const arr of [ev, ce]) {
+    for (let i = 0; i < arr.length; i++) {
+      const t = arr[i];
+      if (!(t >= 0) || t === Infinity) throw new RangeError(`time must be finite and ≥ 0, got ${String(t)}`);
+    }
+  }
+  const ne = ev.length;
+  const n = ne + ce.length;
   ev.sort();
   ce.sort();
 

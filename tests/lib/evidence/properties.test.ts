@@ -17,6 +17,7 @@ import {
   type Preparation,
   type Setting,
   type TrialInput,
+  type WhatWouldChange,
 } from '@/lib/evidence';
 import { dateAfter } from './helpers';
 
@@ -158,7 +159,7 @@ const harmTrialArb = fc
     }),
   );
 
-const NUM_RUNS = 150;
+const NUM_RUNS = 100;
 
 type Direction = 'not-worse' | 'not-better';
 
@@ -249,7 +250,7 @@ describe('evidence engine invariants (PRODUCT.md)', () => {
           for (const r of results.slice(1)) expect(aggregateFeedstock(r)).toStrictEqual(agg0);
         },
       ),
-      { numRuns: 60 },
+      { numRuns: 40 },
     );
   });
 
@@ -307,6 +308,47 @@ describe('evidence engine invariants (PRODUCT.md)', () => {
         },
       ),
       { numRuns: NUM_RUNS },
+    );
+  });
+
+  it('"what would change it" is honest: the named trials give the named verdict, one fewer does not', () => {
+    const hypothetical = (w: WhatWouldChange, setting: Setting, n: number): TrialInput[] =>
+      Array.from({ length: n }, (_, i) => ({
+        id: `zz-h${i}`,
+        contributorId: `new-keeper-${i}`,
+        setting,
+        preparation: w.preparation,
+        status: 'closed',
+        startDate: '2024-05-01',
+        surfaceLoadKgM2: w.loadKgM2,
+        hasControl: true,
+        photoCount: 1,
+        checkIns:
+          w.kind === 'consumed'
+            ? [quiet(7, 50), quiet(14, 5)]
+            : [quiet(7, 80, { wormDeaths: true })],
+      }));
+    fc.assert(
+      fc.property(trialsArb, (trials) => {
+        const r = aggregateFeedstock(trials);
+        for (const g of r.groups) {
+          for (const w of g.derivation.whatWouldChange) {
+            const after = aggregateFeedstock([...trials, ...hypothetical(w, g.setting, w.trials)]).groups.find((x) => x.key === g.key);
+            expect(after?.verdict, w.text).toBe(w.to);
+            const fewer = aggregateFeedstock([...trials, ...hypothetical(w, g.setting, w.trials - 1)]).groups.find((x) => x.key === g.key);
+            expect(fewer?.verdict, w.text).toBe(g.verdict);
+          }
+        }
+        for (const s of r.settings) {
+          for (const w of s.derivation.whatWouldChange) {
+            const after = aggregateFeedstock([...trials, ...hypothetical(w, s.setting, w.trials)]).settings.find((x) => x.setting === s.setting);
+            expect(after?.verdict, w.text).toBe(w.to);
+            const fewer = aggregateFeedstock([...trials, ...hypothetical(w, s.setting, w.trials - 1)]).settings.find((x) => x.setting === s.setting);
+            expect(fewer?.verdict, w.text).toBe(s.verdict);
+          }
+        }
+      }),
+      { numRuns: 60 },
     );
   });
 
