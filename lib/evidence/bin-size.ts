@@ -32,7 +32,7 @@ export function binAreaFt2(lbScrapsPerWeek: number): number {
   return nonNegative(lbScrapsPerWeek, 'scraps per week') * FT2_PER_LB_SCRAPS_PER_WEEK;
 }
 
-/** Alias of binAreaFt2, the name used in REFERENCES §3. */
+/** Alias of binAreaFt2, the name used in REFERENCES §3. Throws RangeError like binAreaFt2. */
 export const binArea = binAreaFt2;
 
 /** Bin surface area (m²) for kg of food scraps per week (same rule in metric). Throws RangeError like binAreaFt2. */

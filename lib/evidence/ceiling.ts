@@ -187,6 +187,7 @@ export interface CeilingCore {
  * Ceiling from pooled loads: the highest load whose block mean is ≥ threshold
  * (blocks are non-increasing, so qualifying blocks form a prefix). `null` when
  * no load qualifies or there are no loads.
+ * Throws RangeError on a threshold outside [0, 1].
  */
 export function ceilingFromPooled(pooled: PooledLoads, threshold: number = CEILING_SUCCESS_THRESHOLD): CeilingCore {
   const blocks = pavaNonIncreasing(pooled);
@@ -314,7 +315,7 @@ export function withExtraTrials(pooled: PooledLoads, load: number, successes: nu
   return { loads, successes: succ, weights: w };
 }
 
-/** Fit blocks in loads and fitted values, for output. */
+/** Fit blocks in loads and fitted values, for output. Throws nothing. */
 export function fitBlocks(pooled: PooledLoads, blocks: readonly PavaBlock[]): FitBlock[] {
   return blocks.map((b) => ({
     fromKgM2: pooled.loads[b.start],
@@ -335,7 +336,7 @@ export function doseCeiling(points: readonly CeilingPoint[], threshold: number =
   return ceilingEstimateFromPooled(pooled, (x) => points.filter((p) => p.loadKgM2 === x).map((p) => p.id), threshold);
 }
 
-/** As `doseCeiling`, with the pooled loads already computed; `idsAtLoad` lists the trials at a load. */
+/** As `doseCeiling`, with the pooled loads already computed; `idsAtLoad` lists the trials at a load. Throws RangeError like ceilingFromPooled. */
 export function ceilingEstimateFromPooled(
   pooled: PooledLoads,
   idsAtLoad: (loadKgM2: number) => string[],
@@ -356,7 +357,7 @@ export function ceilingEstimateFromPooled(
   };
 }
 
-/** Code-unit string order (locale-independent, deterministic). */
+/** Code-unit string order (locale-independent, deterministic). Throws nothing. */
 export function byString(a: string, b: string): number {
   return a < b ? -1 : a > b ? 1 : 0;
 }

@@ -67,7 +67,7 @@ export function formatLoad(x: number): string {
   return String(Number(x.toPrecision(2)));
 }
 
-/** A share 0..1 as a whole percentage, "88%". */
+/** A share 0..1 as a whole percentage, "88%". Throws nothing. */
 export function formatPct(x: number): string {
   return `${Math.round(x * 100)}%`;
 }
@@ -96,7 +96,7 @@ export interface GroupSentenceInput {
   because: string;
 }
 
-/** Plain sentences explaining a group's verdict, in reading order. */
+/** Plain sentences explaining a group's verdict, in reading order. Throws nothing for a consistent input. */
 export function groupSentences(g: GroupSentenceInput): string[] {
   const out: string[] = [];
   const where = `${capitalise(PREPARATION_WORDS[g.preparation])}, ${SETTING_WORDS[g.setting]}`;
@@ -159,13 +159,13 @@ export function groupSentences(g: GroupSentenceInput): string[] {
   return out;
 }
 
-/** One sentence naming the certainty grade and why it was lowered. */
+/** One sentence naming the certainty grade and why it was lowered. Throws nothing. */
 export function certaintySentence(c: Certainty): string {
   const lowered = c.downgrades.map((d) => `${d.domain} (${d.reasons.join('; ')})`);
   return `Certainty ${c.grade}: ${c.baseReason}${lowered.length > 0 ? `; lowered for ${lowered.join(', ')}` : ''}.`;
 }
 
-/** Sentence for one hypothetical change. */
+/** Sentence for one hypothetical change. Throws RangeError on a negative or fractional trial count. */
 export function whatWouldChangeText(
   w: Omit<WhatWouldChange, 'text'>,
   scope: 'group' | 'setting',
@@ -194,7 +194,7 @@ export interface SettingSentenceInput {
   certainty: Certainty | null;
 }
 
-/** Plain sentences explaining a setting verdict. */
+/** Plain sentences explaining a setting verdict. Throws nothing for a consistent input. */
 export function settingSentences(s: SettingSentenceInput): string[] {
   const out: string[] = [];
   const where = capitalise(SETTING_WORDS[s.setting]);

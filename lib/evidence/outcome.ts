@@ -317,7 +317,7 @@ export function summariseTrial(trial: Pick<TrialInput, 'id' | 'status' | 'startD
   };
 }
 
-/** Adverse events in an event mask, in ADVERSE_EVENTS order. */
+/** Adverse events in an event mask, in ADVERSE_EVENTS order. Throws nothing. */
 export function eventsInMask(mask: number): AdverseEvent[] {
   const out: AdverseEvent[] = [];
   for (let k = 0; k < ADVERSE_EVENTS.length; k++) if (mask & (1 << k)) out.push(ADVERSE_EVENTS[k]);

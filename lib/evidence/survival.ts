@@ -123,7 +123,7 @@ export function kaplanMeierFromTimes(ev: Float64Array, ce: Float64Array, z: numb
   };
 }
 
-/** S(t) of an estimate: the survival after all rows with time ≤ t (1 before the first row). */
+/** S(t) of an estimate: the survival after all rows with time ≤ t (1 before the first row). Throws nothing. */
 export function survivalAt(estimate: Pick<SurvivalEstimate, 'table'>, t: number): number {
   let s = 1;
   for (const row of estimate.table) {

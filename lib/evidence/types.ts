@@ -48,8 +48,11 @@ export type GroupVerdict = 'feed' | 'limit' | 'avoid';
 /** GRADE certainty levels. */
 export type CertaintyGrade = 'high' | 'moderate' | 'low' | 'very low';
 
+/** How many worms a check-in saw in the feedstock. */
 export type WormActivity = 'none' | 'few' | 'many' | 'swarming';
+/** Smell of the feedstock at a check-in. */
 export type Smell = 'none' | 'earthy' | 'sour' | 'rotten' | 'ammonia';
+/** Moisture of the bed at a check-in, as a keeper judges it by hand. */
 export type MoistureLevel = 'dry' | 'damp' | 'wet' | 'waterlogged';
 /** Organisms a keeper can tick on a check-in. Springtails are recorded but harmless. */
 export type Pest =

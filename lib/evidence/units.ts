@@ -59,12 +59,12 @@ function factor<U extends string>(table: Readonly<Record<U, number>>, unit: U, k
   return table[unit];
 }
 
-/** True when `unit` is a mass unit code. */
+/** True when `unit` is a mass unit code. Throws nothing. */
 export function isMassUnit(unit: string): unit is MassUnit {
   return Object.prototype.hasOwnProperty.call(MASS_TO_KG, unit);
 }
 
-/** True when `unit` is a volume unit code. */
+/** True when `unit` is a volume unit code. Throws nothing. */
 export function isVolumeUnit(unit: string): unit is VolumeUnit {
   return Object.prototype.hasOwnProperty.call(VOLUME_TO_L, unit);
 }

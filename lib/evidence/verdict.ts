@@ -62,6 +62,7 @@ export function compareVerdicts(a: Verdict, b: Verdict): number | null {
  * Settled when there are at least MIN_FINISHED_TRIALS finished trials from at
  * least MIN_CONTRIBUTORS distinct contributors. Both counts only grow as trials
  * are added, so a settled result never becomes unsettled.
+ * Throws nothing.
  */
 export function isSettled(finished: number, finishedContributors: number): boolean {
   return finished >= MIN_FINISHED_TRIALS && finishedContributors >= MIN_CONTRIBUTORS;
@@ -170,6 +171,7 @@ export interface SettingRuleResult {
 /**
  * Picks the best group among candidates: better verdict first, then more
  * finished trials, then the earlier preparation in PREPARATION_ORDER.
+ * Throws nothing.
  */
 export function bestGroup<T extends SettingRuleGroup>(groups: readonly T[]): T | null {
   let best: T | null = null;
@@ -201,6 +203,7 @@ export function bestGroup<T extends SettingRuleGroup>(groups: readonly T[]): T |
  * - no finished trials → null.
  * Monotone: an absent raw group acts like raw `avoid`, and an absent prepared
  * group like prepared `avoid`.
+ * Throws nothing.
  */
 export function settingVerdictRule(groups: readonly SettingRuleGroup[]): SettingRuleResult {
   const raw = groups.find((g) => g.preparation === BASELINE_PREPARATION && g.provisional !== null) ?? null;

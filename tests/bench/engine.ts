@@ -4,6 +4,7 @@
  * Run: npx tsx tests/bench/engine.ts (or `npm run bench`, which runs every benchmark)
  * Targets: 10k under 200 ms; 100k no more than 12 × the 10k time.
  */
+import { loadavg } from 'node:os';
 import { setFlagsFromString } from 'node:v8';
 import { runInNewContext } from 'node:vm';
 import { aggregateFeedstock } from '../../lib/evidence/aggregate';
@@ -37,8 +38,8 @@ function dateAfter(startDay: number, days: number): string {
 }
 
 /** Synthetic trials: random loads 0.2–20 kg/m², heavier loads are slower and heat more. */
-export function makeTrials(n: number, seedValue = 42): TrialInput[] {
-  const rnd = mulberry32(seedValue);
+export function makeTrials(n: number, prngState = 42): TrialInput[] {
+  const rnd = mulberry32(prngState);
   const out: TrialInput[] = [];
   for (let i = 0; i < n; i++) {
     const load = Math.round((0.2 + rnd() * 19.8) * 1000) / 1000;
@@ -142,7 +143,7 @@ for (const r of rows) {
 }
 console.log('median / min: wall-clock; CPU: user + system time of this process during the call (less sensitive to other load on the machine)');
 console.log('* heap used right after the call minus before it (GC forced before; includes garbage not yet collected, so it approximates the peak)');
-console.log(`load average when run: ${(await import('node:os')).loadavg().map((x) => x.toFixed(2)).join(' ')}`);
+console.log(`load average when run: ${loadavg().map((x) => x.toFixed(2)).join(' ')}`);
 console.log(`max RSS of this process: ${(process.resourceUsage().maxRSS / 1024).toFixed(0)} MB (includes the generated inputs)`);
 const t10k = rows[1].medianMs;
 const t100k = rows[2].medianMs;

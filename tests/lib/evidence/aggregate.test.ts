@@ -8,6 +8,7 @@ function feedGroup(prefix: string, n: number, load = 3, extra: Partial<Parameter
 
 describe('aggregateFeedstock', () => {
   it('groups by setting × preparation in a fixed order with a rules version', () => {
+    // PRODUCT.md "The computation" step 3 (per feedstock × setting × preparation); project rule: SETTING_ORDER, PREPARATION_ORDER, RULES_VERSION
     const r = aggregateFeedstock([
       ...feedGroup('a', 2, 3, { setting: 'bed', preparation: 'pre-composted' }),
       ...feedGroup('b', 2, 3, { setting: 'bin', preparation: 'raw' }),
@@ -19,6 +20,7 @@ describe('aggregateFeedstock', () => {
   });
 
   it('a settled feed group explains itself', () => {
+    // PRODUCT.md "The computation" steps 3–4; project rules in thresholds.ts (feed: ceiling ≥ 2 kg/m², Wilson lower bound ≥ 0.5, harm ≤ 10 %)
     const trials = feedGroup('t', 5, 3);
     trials.push(trialWith('consumed', { id: 't9', status: 'running', checkIns: [checkIn(7, { shareRemainingPct: 60 })] }));
     const r = aggregateFeedstock(trials);
@@ -43,6 +45,7 @@ describe('aggregateFeedstock', () => {
   });
 
   it('setting words in sentences', () => {
+    // project wording (brief): bin → "in enclosed bins", flow-through → "in flow-through systems", bed → "in open beds"
     const r = aggregateFeedstock([
       ...feedGroup('a', 1, 3, { setting: 'bin' }),
       ...feedGroup('b', 1, 3, { setting: 'flow-through' }),
@@ -57,6 +60,7 @@ describe('aggregateFeedstock', () => {
   });
 
   it('unsettled with too few trials, with the rules-alone verdict named', () => {
+    // PRODUCT.md vocabulary: unsettled = too few independent trials; project rule MIN_FINISHED_TRIALS = 3, MIN_CONTRIBUTORS = 2
     const r = aggregateFeedstock(feedGroup('u', 2, 3, { contributorId: 'same' }));
     const g = r.groups[0];
     expect(g.verdict).toBe('unsettled');
@@ -67,11 +71,14 @@ describe('aggregateFeedstock', () => {
     const w = g.derivation.whatWouldChange.find((x) => x.kind === 'consumed') as WhatWouldChange;
     expect(w.trials).toBe(1);
     expect(w.to).not.toBe('unsettled');
+    // tie-break (aggregate.ts preferred): candidates 2 and 3 kg/m² both need one trial → the lower load
+    expect(w.loadKgM2).toBe(2);
     expect(w.text).toContain('from other keepers');
     expect(r.settings[0].verdict).toBe('unsettled');
   });
 
   it('raw keeps out but pre-composted feeds freely → prepare, driven by the pre-composted group', () => {
+    // PRODUCT.md vocabulary: prepare = fine only after a preparation step; project rule settingVerdictRule
     const raw = Array.from({ length: 4 }, (_, i) => trialWith('harm', { id: `r${i}`, contributorId: `k${i}`, load: 2 }));
     const pre = feedGroup('p', 5, 3, { preparation: 'pre-composted' });
     const r = aggregateFeedstock([...raw, ...pre]);
@@ -97,6 +104,7 @@ describe('aggregateFeedstock', () => {
   });
 
   it('"what would change it" is honest: adding the named trials gives the named verdict', () => {
+    // PRODUCT.md "The computation" step 4: what would change it, computed by re-running the rules
     const base = [
       ...feedGroup('a', 3, 1),
       trialWith('partial', { id: 'z1', contributorId: 'k9', load: 5 }),
@@ -130,6 +138,7 @@ describe('aggregateFeedstock', () => {
   });
 
   it('output is plain JSON: no undefined, NaN or Infinity', () => {
+    // project rule (brief): JSON-serialisable output, null for missing values
     const trials = [
       ...feedGroup('a', 3, 2),
       trialWith('harm', { id: 'h', load: 9 }),
@@ -141,6 +150,7 @@ describe('aggregateFeedstock', () => {
   });
 
   it('throws on duplicate ids and invalid trials', () => {
+    // project rule: invalid input is a RangeError
     expect(() => aggregateFeedstock([trialWith('consumed', { id: 'x' }), trialWith('consumed', { id: 'x' })])).toThrow(RangeError);
     expect(() => aggregateFeedstock([{ ...trial({ id: 'x' }), setting: 'pot' as never }])).toThrow(RangeError);
     expect(() => aggregateFeedstock([{ ...trial({ id: 'x' }), preparation: 'fried' as never }])).toThrow(RangeError);
@@ -150,16 +160,19 @@ describe('aggregateFeedstock', () => {
   });
 
   it('no trials: empty result', () => {
+    // project rule: settings and groups appear only when they have trials
     expect(aggregateFeedstock([])).toStrictEqual({ groups: [], settings: [], rulesVersion: RULES_VERSION });
   });
 
   it('whatWouldChange can be switched off', () => {
+    // project option AggregateOptions.whatWouldChange
     const r = aggregateFeedstock(feedGroup('a', 5, 3), { whatWouldChange: false });
     expect(r.groups[0].derivation.whatWouldChange).toEqual([]);
     expect(r.settings[0].derivation.whatWouldChange).toEqual([]);
   });
 
   it('cautions and harmless residents appear in the derivation', () => {
+    // PRODUCT.md step 3 (cautions with frequencies); TRADE §5 springtails harmless (from memory); REFERENCES §9 common practice
     const trials = [
       ...feedGroup('a', 3, 2),
       trialWith('partial', { id: 'h1', load: 8, checkIns: [checkIn(7, { bedTempC: 33, shareRemainingPct: 80, pests: ['springtails'] }), checkIn(21, { shareRemainingPct: 40 })] }),
@@ -169,5 +182,34 @@ describe('aggregateFeedstock', () => {
     expect(g.harmless).toEqual([{ pest: 'springtails', trials: 1 }]);
     expect(g.derivation.sentences).toContain('Heating (above 30 °C) in 1 of 4 trials, all above 2 kg/m².');
     expect(g.derivation.sentences).toContain('Springtails seen in 1 trial (harmless decomposers, not counted as a problem).');
+  });
+
+  it('inconsistency tie: a fitted share of exactly 0.5 predicts consumed', () => {
+    // project rule: FIT_PREDICTS_CONSUMED = 0.5, ties predict consumed → the partial trial disagrees, the consumed one does not
+    const g = aggregateFeedstock([trialWith('consumed', { id: 'a', load: 2 }), trialWith('partial', { id: 'b', load: 2 })]).groups[0];
+    expect(g.ceiling.blocks).toEqual([{ fromKgM2: 2, toKgM2: 2, fitted: 0.5, weight: 2 }]);
+    expect(g.derivation.numbers.disagreementsWithLoadPattern).toBe(1);
+  });
+
+  it('at most 20 driving trial ids, the first by id', () => {
+    // project rule: DRIVING_TRIAL_LIMIT = 20
+    const g = aggregateFeedstock(feedGroup('d', 25, 3)).groups[0];
+    expect(g.derivation.drivingTrialIds).toHaveLength(20);
+    expect(g.derivation.drivingTrialIds[0]).toBe('d0');
+    expect(g.trialIds).toHaveLength(25);
+  });
+
+  it('trials are ordered by id in code-unit order (not locale order)', () => {
+    // project rule (aggregate.ts): deterministic sort independent of locale — 'B' < 'a', 'a10' < 'a9'
+    const g = aggregateFeedstock([trialWith('consumed', { id: 'a9' }), trialWith('consumed', { id: 'a10' }), trialWith('consumed', { id: 'B1' })]).groups[0];
+    expect(g.trialIds).toEqual(['B1', 'a10', 'a9']);
+  });
+
+  it('hypothetical loads come from the tested loads and the ordinary load, at most four', () => {
+    // project rule: MAX_HYPOTHETICAL_LOADS = 4 candidates from {next load above the ceiling, ceiling, 2 kg/m², lowest, highest}
+    const trials = [...feedGroup('a', 3, 1), trialWith('partial', { id: 'p1', contributorId: 'x', load: 5 }), trialWith('partial', { id: 'p2', contributorId: 'y', load: 9 })];
+    const g = aggregateFeedstock(trials).groups[0];
+    const allowed = new Set([1, 5, 9, 2]);
+    for (const w of g.derivation.whatWouldChange) expect(allowed.has(w.loadKgM2)).toBe(true);
   });
 });

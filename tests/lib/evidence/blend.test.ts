@@ -101,6 +101,7 @@ describe('mix calculators (Cornell formula, REFERENCES §2)', () => {
   });
 
   it('throws RangeError on invalid mixes', () => {
+    // project rule: invalid mixes are a RangeError (a mix needs nitrogen for a C:N)
     expect(() => mixCN([])).toThrow(RangeError);
     expect(() => mixCN([{ wetMass: 1, moisturePct: 101, nitrogenPct: 1, cnRatio: 10 }])).toThrow(RangeError);
     expect(() => mixCN([{ wetMass: 1, moisturePct: 50, nitrogenPct: 0, cnRatio: 10 }])).toThrow(RangeError);

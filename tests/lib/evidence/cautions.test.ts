@@ -19,6 +19,7 @@ describe('cautions', () => {
   });
 
   it('mixed and all-loads patterns', () => {
+    // PRODUCT.md step 3; project rule (cautions.ts): 'mixed' gives the load range, 'all-loads' when every trial had it
     const c = computeCautions([t('a', 2, ['mould']), t('b', 5, []), t('c', 8, ['mould', 'fruit-flies']), t('d', 3, ['fruit-flies'])]);
     const mould = c.find((x) => x.event === 'mould');
     expect(mould?.pattern).toBe('mixed');
@@ -35,11 +36,13 @@ describe('cautions', () => {
   });
 
   it('most frequent first; ties in the fixed event order', () => {
+    // project rule (cautions.ts): sort by frequency, ties in ADVERSE_EVENTS order
     const c = computeCautions([t('a', 1, ['rodents', 'mould']), t('b', 2, ['rodents', 'mould', 'heating'])]);
     expect(c.map((x) => x.event)).toEqual(['mould', 'rodents', 'heating']);
   });
 
   it('trials without check-ins are not in the denominator; masks work like records', () => {
+    // project rule (cautions.ts): denominator = trials with at least one check-in
     const c = computeCautions([t('a', 1, ['ants']), t('b', 2, [], false)]);
     expect(c[0].outOf).toBe(1);
     const m = computeCautions([{ id: 'a', loadKgM2: 1, eventMask: 1 << 3, hasCheckIns: true }]);

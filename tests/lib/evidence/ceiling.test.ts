@@ -59,6 +59,7 @@ describe('pool-adjacent-violators fit', () => {
   });
 
   it('fit is non-increasing and pools trials at equal loads', () => {
+    // PRODUCT.md step 3: monotone (non-increasing) fit of success against surface load, weighted
     const e = doseCeiling(pts([[1, true], [1, false], [2, true], [3, false], [3, false]]));
     const fits = e.blocks.map((b) => b.fitted);
     for (let i = 1; i < fits.length; i++) expect(fits[i]).toBeLessThanOrEqual(fits[i - 1]);
@@ -79,6 +80,7 @@ describe('dose ceiling', () => {
   });
 
   it('highest tested load whose fit stays at or above the threshold', () => {
+    // PRODUCT.md step 3 + project rule CEILING_SUCCESS_THRESHOLD = 0.8
     const e = doseCeiling(pts([[1, true], [2, true], [4, true], [6, true], [9, false], [12, false]]));
     expect(e.kgM2).toBe(6);
     expect(e.isHighestTested).toBe(false);
@@ -99,6 +101,7 @@ describe('dose ceiling', () => {
   });
 
   it('null without trials or when nothing qualifies', () => {
+    // project rule (brief): the ceiling is null when not determinable
     const none = doseCeiling([]);
     expect(none.kgM2).toBeNull();
     expect(none.lowestTestedKgM2).toBeNull();
@@ -109,6 +112,7 @@ describe('dose ceiling', () => {
   });
 
   it('an added success never lowers the ceiling; an added failure never raises it', () => {
+    // PRODUCT.md invariants: adding a successful trial never lowers a ceiling
     const rank = (x: number | null) => (x === null ? -Infinity : x);
     fc.assert(
       fc.property(
@@ -127,6 +131,7 @@ describe('dose ceiling', () => {
   });
 
   it('hypotheticalCeiling equals refitting with the extra trials', () => {
+    // project rule (ceiling.ts): the fast what-would-change path must agree with a full refit
     fc.assert(
       fc.property(
         fc.array(fc.tuple(fc.integer({ min: 1, max: 10 }), fc.boolean()), { maxLength: 20 }),
@@ -146,6 +151,7 @@ describe('dose ceiling', () => {
   });
 
   it('does not depend on input order', () => {
+    // PRODUCT.md invariants: the result does not depend on trial order
     const rows: [number, boolean][] = [[3, true], [1, false], [2, true], [3, false], [1, true]];
     const a = doseCeiling(pts(rows));
     const b = doseCeiling(pts(rows).reverse());
@@ -153,6 +159,7 @@ describe('dose ceiling', () => {
   });
 
   it('throws RangeError on bad loads and thresholds', () => {
+    // project rule: invalid input is a RangeError
     expect(() => doseCeiling(pts([[0, true]]))).toThrow(RangeError);
     expect(() => doseCeiling(pts([[Number.NaN, true]]))).toThrow(RangeError);
     expect(() => thresholdFraction(1.5)).toThrow(RangeError);

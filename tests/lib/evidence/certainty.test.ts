@@ -58,6 +58,7 @@ describe('certainty (GRADE terms)', () => {
   });
 
   it('never below very low; no finished trials', () => {
+    // GRADE terms (PRODUCT.md step 4): four levels, very low is the floor
     const worst = gradeCertainty({ finished: 2, finishedContributors: 1, withControl: 0, withPhotos: 0, disagreements: 1, successLower: 0.1, successUpper: 0.9 });
     expect(worst.grade).toBe('very low');
     const none = gradeCertainty({ finished: 0, finishedContributors: 0, withControl: 0, withPhotos: 0, disagreements: 0, successLower: null, successUpper: null });

@@ -51,6 +51,7 @@ describe('worm comfort', () => {
   });
 
   it('combined check reports the worst reading and its reason', () => {
+    // REFERENCES §3 (Loehr 1985; Table 18.3) via tempStatus / moistureStatus; project rule: worst status wins
     const r = checkComfort({ bedTempC: 36, moisture: 'dry' });
     expect(r.status).toBe('lethal');
     expect(r.reasons).toEqual(['at or above 35 °C, where worms die', 'dry bedding, below the 60% limit']);

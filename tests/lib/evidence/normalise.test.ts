@@ -70,13 +70,16 @@ describe('normaliseDose', () => {
 
 describe('normaliseTrial', () => {
   it('dose wins over a stored surface load', () => {
+    // project rule (normalise.ts): the raw dose entry is normalised and wins
     const t = normaliseTrial({ id: 'a', surfaceLoadKgM2: 99, dose: { dose: { amount: 2, unit: 'kg' }, area: { amount: 1, unit: 'm2' } } });
     expect(t.surfaceLoadKgM2).toBe(2);
   });
   it('uses the stored surface load, depth and ratio otherwise', () => {
+    // PRODUCT.md step 1: surface load, layer depth, feed ratio
     expect(normaliseTrial({ id: 'a', surfaceLoadKgM2: 3, layerDepthCm: 4, feedRatio: 0.5 })).toEqual({ surfaceLoadKgM2: 3, layerDepthCm: 4, feedRatio: 0.5 });
   });
   it('throws without any load', () => {
+    // project rule: a trial without a surface load > 0 is a RangeError
     expect(() => normaliseTrial({ id: 'a' })).toThrow(RangeError);
     expect(() => normaliseTrial({ id: 'a', surfaceLoadKgM2: -1 })).toThrow(RangeError);
     expect(() => normaliseTrial({ id: 'a', surfaceLoadKgM2: Number.NaN })).toThrow(RangeError);
@@ -85,6 +88,7 @@ describe('normaliseTrial', () => {
 
 describe('dates', () => {
   it('day numbers match the calendar', () => {
+    // proleptic Gregorian calendar (ISO 8601); checked against JavaScript Date.UTC
     expect(dayNumber('1970-01-01')).toBe(0);
     expect(dayNumber('2024-02-29')).toBe(Date.UTC(2024, 1, 29) / 86_400_000);
     expect(dayNumber('2000-03-01') - dayNumber('2000-02-28')).toBe(2); // 2000 is a leap year
@@ -92,6 +96,7 @@ describe('dates', () => {
     expect(daysBetween('2024-05-01', '2024-06-19')).toBe(49);
   });
   it('rejects other formats and impossible dates', () => {
+    // project rule: dates are YYYY-MM-DD calendar dates
     for (const bad of ['2023-02-29', '2024-13-01', '2024-00-10', '2024-04-31', '0000-01-01', '2024-1-01', '2024/01/01', '2024-01-01T00:00', '']) {
       expect(() => dayNumber(bad), bad).toThrow(RangeError);
     }

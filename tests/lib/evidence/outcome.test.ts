@@ -70,11 +70,13 @@ describe('adverse-event thresholds', () => {
   });
 
   it('deaths and exodus are events', () => {
+    // PRODUCT.md step 2: harm = deaths, mass exodus
     expect(events({ wormDeaths: true })).toEqual(['worm-deaths']);
     expect(events({ exodus: true })).toEqual(['exodus']);
   });
 
   it('first day of each event, ordered by day then fixed event order', () => {
+    // project rule (outcome.ts): first day per event; ties in ADVERSE_EVENTS order
     const c = classifyTrial(
       trial({
         id: 'a',
@@ -128,6 +130,7 @@ describe('outcome rules', () => {
   });
 
   it('harm from deaths or exodus wins over consumption (tie-break)', () => {
+    // project rule (outcome.ts rule 2 before rule 3)
     const c = classifyTrial(trial({ id: 'h', checkIns: [checkIn(7, { shareRemainingPct: 5 }), checkIn(14, { exodus: true, shareRemainingPct: 0 })] }));
     expect(c.outcome).toBe('harm');
     expect(c.daysToConsumption).toBe(7);
@@ -135,6 +138,7 @@ describe('outcome rules', () => {
   });
 
   it('closed: rejected when worms never came, else partial', () => {
+    // PRODUCT.md step 2: rejected = worms stayed away to the end
     expect(classifyTrial(trial({ id: 'r', checkIns: [checkIn(7, { wormActivity: 'none', shareRemainingPct: 100 })] })).outcome).toBe('rejected');
     const p = classifyTrial(trial({ id: 'p', checkIns: [checkIn(7, { wormActivity: 'few', shareRemainingPct: 60 })] }));
     expect(p.outcome).toBe('partial');
@@ -142,6 +146,7 @@ describe('outcome rules', () => {
   });
 
   it('running and abandoned: only decisive evidence gives an outcome', () => {
+    // PRODUCT.md step 3: running or abandoned trials are censored, not dropped; project rule: outcome null until decisive
     for (const status of ['running', 'abandoned'] as const) {
       expect(classifyTrial(trial({ id: 'x', status, checkIns: [checkIn(7, { wormActivity: 'none', shareRemainingPct: 100 })] })).outcome).toBeNull();
       expect(classifyTrial(trial({ id: 'x', status, checkIns: consumedCheckIns() })).outcome).toBe('consumed');
@@ -154,6 +159,7 @@ describe('outcome rules', () => {
   });
 
   it('no check-ins: no outcome, no follow-up', () => {
+    // project rule (outcome.ts): no check-ins, no evidence
     const c = classifyTrial(trial({ id: 'e', checkIns: [] }));
     expect(c.outcome).toBeNull();
     expect(c.followUpDays).toBeNull();
@@ -161,6 +167,7 @@ describe('outcome rules', () => {
   });
 
   it("the owner's confirmed outcome wins", () => {
+    // project rule (brief): outcomeOverride wins over the classifier
     const c = classifyTrial(trial({ id: 'o', outcomeOverride: 'partial', checkIns: consumedCheckIns() }));
     expect(c.outcome).toBe('partial');
     expect(c.outcomeSource).toBe('owner');
@@ -174,6 +181,7 @@ describe('outcome rules', () => {
   });
 
   it('does not depend on the order of check-ins', () => {
+    // PRODUCT.md invariants: order does not matter
     const ins = [checkIn(21, { shareRemainingPct: 8, pests: ['mites'] }), checkIn(7, { shareRemainingPct: 70, bedTempC: 31 }), checkIn(14, { shareRemainingPct: 30, mould: true })];
     const a = classifyTrial(trial({ id: 'a', checkIns: ins }));
     const b = classifyTrial(trial({ id: 'a', checkIns: [ins[2], ins[0], ins[1]] }));
@@ -181,6 +189,7 @@ describe('outcome rules', () => {
   });
 
   it('summariseTrial agrees with classifyTrial', () => {
+    // project rule: one set of outcome rules (outcome.ts) for both entry points
     const t = trial({ id: 'a', checkIns: [checkIn(7, { bedTempC: 36, pests: ['springtails'] }), checkIn(14, { shareRemainingPct: 3 })] });
     const c = classifyTrial(t);
     const s = summariseTrial(t);
@@ -192,6 +201,7 @@ describe('outcome rules', () => {
   });
 
   it('throws RangeError on bad input', () => {
+    // project rule: invalid input is a RangeError
     expect(() => classifyTrial(trial({ id: 'b', checkIns: [checkIn(-1)] }))).toThrow(RangeError); // before the start
     expect(() => classifyTrial(trial({ id: 'b', checkIns: [checkIn(1, { shareRemainingPct: 101 })] }))).toThrow(RangeError);
     expect(() => classifyTrial(trial({ id: 'b', checkIns: [checkIn(1, { shareRemainingPct: Number.NaN })] }))).toThrow(RangeError);

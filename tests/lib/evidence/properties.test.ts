@@ -159,7 +159,7 @@ const harmTrialArb = fc
     }),
   );
 
-const NUM_RUNS = 100;
+const NUM_RUNS = 80;
 
 type Direction = 'not-worse' | 'not-better';
 
@@ -201,6 +201,7 @@ function assertMonotone(before: FeedstockAggregate, after: FeedstockAggregate, d
 
 describe('evidence engine invariants (PRODUCT.md)', () => {
   it('does not depend on trial order (or check-in order)', () => {
+    // PRODUCT.md "Invariants that tests hold": independent of trial order
     fc.assert(
       fc.property(trialsArb, fc.array(fc.integer(), { minLength: 30, maxLength: 30 }), (trials, keys) => {
         const a = aggregateFeedstock(trials);
@@ -215,6 +216,7 @@ describe('evidence engine invariants (PRODUCT.md)', () => {
   });
 
   it('does not depend on the units entered (kg, g, lb, oz, volume with density; m² or ft²)', () => {
+    // PRODUCT.md invariants: independent of units; REFERENCES §5 NIST factors
     fc.assert(
       fc.property(
         trialsArb,
@@ -250,11 +252,12 @@ describe('evidence engine invariants (PRODUCT.md)', () => {
           for (const r of results.slice(1)) expect(aggregateFeedstock(r)).toStrictEqual(agg0);
         },
       ),
-      { numRuns: 40 },
+      { numRuns: 30 },
     );
   });
 
   it('an added consumed trial with no adverse events never worsens a verdict or lowers a ceiling', () => {
+    // PRODUCT.md invariants: adding a successful trial never worsens a verdict or lowers a ceiling
     fc.assert(
       fc.property(trialsArb, consumedTrialArb, (trials, added) => {
         const before = aggregateFeedstock(trials, { whatWouldChange: false });
@@ -268,6 +271,7 @@ describe('evidence engine invariants (PRODUCT.md)', () => {
   });
 
   it('an added harm trial never improves a verdict or raises a ceiling', () => {
+    // PRODUCT.md invariants: adding a harm trial never improves a verdict
     fc.assert(
       fc.property(trialsArb, harmTrialArb, (trials, added) => {
         const before = aggregateFeedstock(trials, { whatWouldChange: false });
@@ -312,6 +316,7 @@ describe('evidence engine invariants (PRODUCT.md)', () => {
   });
 
   it('"what would change it" is honest: the named trials give the named verdict, one fewer does not', () => {
+    // PRODUCT.md step 4: what would change it — computed honestly by re-running the rules
     const hypothetical = (w: WhatWouldChange, setting: Setting, n: number): TrialInput[] =>
       Array.from({ length: n }, (_, i) => ({
         id: `zz-h${i}`,
@@ -353,6 +358,7 @@ describe('evidence engine invariants (PRODUCT.md)', () => {
   });
 
   it('same input, same output', () => {
+    // PRODUCT.md invariants: same input, same output; JSON-serialisable
     fc.assert(
       fc.property(trialsArb, (trials) => {
         const a = aggregateFeedstock(trials);

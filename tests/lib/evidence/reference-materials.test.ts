@@ -51,6 +51,7 @@ describe('reference materials', () => {
   });
 
   it('every value names its source', () => {
+    // brief: reference values WITH their source named per value (REFERENCES §1, §4)
     for (const m of REFERENCE_MATERIALS) {
       for (const v of [m.nitrogenPct, m.cnRatio, m.moisturePct, m.bulkDensityKgM3, ...m.otherBulkDensitiesKgM3]) {
         expect(v.source.length, m.id).toBeGreaterThan(10);

@@ -14,6 +14,7 @@ const blandAltman: SurvivalObservation[] = [
 
 describe('Kaplan–Meier', () => {
   it('Bland & Altman 1998 worked example', () => {
+    // REFERENCES §6b: Bland & Altman 1998, BMJ 317:1572 (lists from memory, table D)
     expect(blandAltman.length).toBe(38); // REFERENCES §6b (V): n = 38
     const km = kaplanMeier(blandAltman);
     // REFERENCES §6b table (D; matches the published table as remembered): t, at risk, events, censored, S(t)
@@ -72,7 +73,20 @@ describe('Kaplan–Meier', () => {
     expect(km.table[0].upper).toBeCloseTo(s ** Math.exp(-1.96 * sigma), 12);
   });
 
+  it('median is the first time S(t) ≤ 0.5, even when S stays at exactly 0.5', () => {
+    // project rule (thresholds.ts MEDIAN_SURVIVAL = 0.5; survival.ts): no midpoint averaging over a flat step
+    const km = kaplanMeier([
+      { time: 1, event: true },
+      { time: 2, event: true },
+      { time: 5, event: false },
+      { time: 8, event: true },
+    ]);
+    expect(survivalAt(km, 2)).toBe(0.5);
+    expect(km.median).toBe(2);
+  });
+
   it('no events, all events, empty input', () => {
+    // project rule (survival.ts): S = 0 → lower band 0, upper band undefined (null)
     expect(kaplanMeier([]).median).toBeNull();
     const none = kaplanMeier([{ time: 5, event: false }]);
     expect(none.median).toBeNull();
@@ -126,6 +140,7 @@ describe('Kaplan–Meier', () => {
   });
 
   it('does not depend on input order', () => {
+    // PRODUCT.md invariants: order does not matter
     const shuffled = blandAltman.slice().reverse();
     expect(kaplanMeier(shuffled)).toStrictEqual(kaplanMeier(blandAltman));
   });

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   AVOID_MAX_ACCEPTED_SHARE,
+  BASELINE_PREPARATION,
   AVOID_MIN_HARM_SHARE,
   bestGroup,
   compareVerdicts,
@@ -61,6 +62,7 @@ describe('settling', () => {
 
 describe('group verdict rule', () => {
   it('no finished trials: no verdict', () => {
+    // project rule (verdict.ts): no finished trials, no provisional verdict
     expect(groupVerdictRule({ finished: 0, consumed: 0, partial: 0, harm: 0, successLower: null, ceilingKgM2: null }).verdict).toBeNull();
   });
 
@@ -100,6 +102,7 @@ describe('group verdict rule', () => {
   });
 
   it('names why it is not feed', () => {
+    // PRODUCT.md step 4: name the thresholds crossed
     const r = groupVerdictRule({ ...feedLike, ceilingKgM2: 1 });
     expect(r.because).toContain('the ceiling of 1 kg/m² is below the ordinary load of 2 kg/m²');
     const n = groupVerdictRule({ finished: 3, consumed: 0, partial: 3, harm: 0, successLower: 0, ceilingKgM2: null });
@@ -108,6 +111,7 @@ describe('group verdict rule', () => {
   });
 
   it('throws on impossible counts', () => {
+    // project rule: impossible counts are a RangeError
     expect(() => groupVerdictRule({ finished: 1, consumed: 1, partial: 1, harm: 0, successLower: 0, ceilingKgM2: null })).toThrow(RangeError);
     expect(() => groupVerdictRule({ finished: -1, consumed: 0, partial: 0, harm: 0, successLower: 0, ceilingKgM2: null })).toThrow(RangeError);
   });
@@ -116,7 +120,13 @@ describe('group verdict rule', () => {
 describe('setting verdict rule', () => {
   const g = (preparation: Preparation, provisional: GroupVerdict | null, finished = 5) => ({ preparation, provisional, finished });
 
+  it('raw is the baseline preparation', () => {
+    // project rule: BASELINE_PREPARATION = 'raw'
+    expect(BASELINE_PREPARATION).toBe('raw');
+  });
+
   it('raw feed or limit decides', () => {
+    // project rule (verdict.ts settingVerdictRule): order feed > limit > prepare > avoid, raw first
     expect(settingVerdictRule([g('raw', 'feed'), g('pre-composted', 'avoid')])).toEqual({ verdict: 'feed', driver: 'raw' });
     expect(settingVerdictRule([g('raw', 'limit'), g('pre-composted', 'feed')])).toEqual({ verdict: 'limit', driver: 'raw' });
   });
@@ -130,6 +140,7 @@ describe('setting verdict rule', () => {
   });
 
   it('avoid when nothing does better', () => {
+    // PRODUCT.md vocabulary: avoid = harms worms, the bin or people at practical doses; project rule settingVerdictRule
     expect(settingVerdictRule([g('raw', 'avoid'), g('aged', 'avoid')])).toEqual({ verdict: 'avoid', driver: 'raw' });
     expect(settingVerdictRule([g('aged', 'avoid')])).toEqual({ verdict: 'avoid', driver: 'aged' });
     expect(settingVerdictRule([g('raw', null)])).toEqual({ verdict: null, driver: null });
