@@ -9,7 +9,7 @@ import { ceilingEstimateFromPooled, hypotheticalCeiling, poolLoads, type PooledL
 import { gradeCertainty } from './certainty';
 import { groupSentences, settingSentences, whatWouldChangeText } from './derivation';
 import { normaliseTrial, roundQuantity } from './normalise';
-import { summariseTrial, type TrialSummary } from './outcome';
+import { summariseTrialInto, type TrialSummary } from './outcome';
 import { kaplanMeierFromTimes } from './survival';
 import {
   BASELINE_PREPARATION,
@@ -72,8 +72,7 @@ export function prepareTrial(t: TrialInput): PreparedTrial {
   if (!Number.isInteger(t.photoCount) || t.photoCount < 0) throw new RangeError(`trial ${t.id}: photoCount must be a whole number ≥ 0`);
   if (typeof t.hasControl !== 'boolean') throw new RangeError(`trial ${t.id}: hasControl must be true or false`);
   const loadKgM2 = t.dose ? normalise(t).surfaceLoadKgM2 : fastLoad(t);
-  const c = summarise(t);
-  return {
+  const p: PreparedTrial = {
     id: t.id,
     contributorId: t.contributorId,
     setting: t.setting,
@@ -82,13 +81,16 @@ export function prepareTrial(t: TrialInput): PreparedTrial {
     loadKgM2,
     hasControl: t.hasControl,
     hasPhotos: t.photoCount > 0,
-    hasCheckIns: c.followUpDays !== null,
-    outcome: c.outcome,
-    eventMask: c.eventMask,
-    daysToConsumption: c.daysToConsumption,
-    followUpDays: c.followUpDays,
-    springtails: c.springtails,
+    hasCheckIns: false,
+    outcome: null,
+    eventMask: 0,
+    daysToConsumption: null,
+    followUpDays: null,
+    springtails: false,
   };
+  summariseInto(t, p);
+  p.hasCheckIns = p.followUpDays !== null;
+  return p;
 }
 
 /** Surface load entered directly: same validation and rounding as normaliseTrial, without its result object. */
@@ -122,7 +124,7 @@ const KINDS = ['consumed', 'harm'] as const;
 const SETTING_INDEX: Record<string, number> = Object.fromEntries(SETTING_ORDER.map((s, i) => [s, i]));
 const PREP_INDEX: Record<string, number> = Object.fromEntries(PREPARATION_ORDER.map((p, i) => [p, i]));
 const normalise = normaliseTrial;
-const summarise = summariseTrial;
+const summariseInto = summariseTrialInto;
 
 function prepIndex(p: Preparation): number {
   return PREP_INDEX[p];

@@ -230,10 +230,13 @@ interface Reading {
   eventMask: number;
 }
 
-/** Scratch for first days per event; a cache only, reset on every call. */
+/** Scratch for first days per event; reset on every call. */
 const FIRST_DAY = new Array<number>(ADVERSE_EVENTS.length).fill(Infinity);
 
-/** Reads all check-ins (validating them) into FIRST_DAY and a Reading. */
+/** Scratch reading, overwritten by every readTrial call (the engine is synchronous; callers copy what they keep). */
+const READING: Reading = { n: 0, firstWormDay: Infinity, lastDay: -Infinity, lastShare: Infinity, consumedDay: Infinity, springtails: false, eventMask: 0 };
+
+/** Reads all check-ins (validating them) into FIRST_DAY and the shared READING, which it returns. */
 function readTrial(trial: Pick<TrialInput, 'id' | 'status' | 'startDate' | 'checkIns' | 'outcomeOverride'>): Reading {
   const id = trial.id;
   if (trial.status !== 'running' && trial.status !== 'closed' && trial.status !== 'abandoned') {
@@ -251,8 +254,8 @@ function readTrial(trial: Pick<TrialInput, 'id' | 'status' | 'startDate' | 'chec
   let lastDay = -Infinity;
   let lastShare = Infinity;
   let springtails = false;
-  // Days with at most CONSUMED_PCT % left; which count depends on firstWormDay, known after the loop.
-  let lowShareDays: number[] | null = null;
+  // Earliest day with at most CONSUMED_PCT % left; it counts only once worms have been seen (checked below).
+  let lowShareDay = Infinity;
   for (let i = 0; i < n; i++) {
     const c = checkIns[i];
     const day = dayNum(c.date) - start;
@@ -264,16 +267,33 @@ function readTrial(trial: Pick<TrialInput, 'id' | 'status' | 'startDate' | 'chec
       lastDay = day;
       lastShare = s;
     } else if (day === lastDay && s < lastShare) lastShare = s;
-    if (s <= CONSUMED_PCT) (lowShareDays ??= []).push(day);
+    if (s <= CONSUMED_PCT && day < lowShareDay) lowShareDay = day;
   }
-  // First day the consumed threshold is met with worms seen by then.
+  // First day the consumed threshold is met with worms seen by then. When the earliest low-share day
+  // came before the worms, look again for the earliest low-share day on or after their first day.
   let consumedDay = Infinity;
-  if (lowShareDays !== null) {
-    for (const d of lowShareDays) if (d >= firstWormDay && d < consumedDay) consumedDay = d;
+  if (lowShareDay !== Infinity && firstWormDay !== Infinity) {
+    if (lowShareDay >= firstWormDay) consumedDay = lowShareDay;
+    else {
+      for (let i = 0; i < n; i++) {
+        const c = checkIns[i];
+        if (c.shareRemainingPct > CONSUMED_PCT) continue;
+        const day = dayNum(c.date) - start;
+        if (day >= firstWormDay && day < consumedDay) consumedDay = day;
+      }
+    }
   }
   let eventMask = 0;
   for (let k = 0; k < firstDay.length; k++) if (firstDay[k] !== Infinity) eventMask |= 1 << k;
-  return { n, firstWormDay, lastDay, lastShare, consumedDay, springtails, eventMask };
+  const r = READING;
+  r.n = n;
+  r.firstWormDay = firstWormDay;
+  r.lastDay = lastDay;
+  r.lastShare = lastShare;
+  r.consumedDay = consumedDay;
+  r.springtails = springtails;
+  r.eventMask = eventMask;
+  return r;
 }
 
 /** The outcome the check-ins alone give (rules 2–5 at the top of this file). */
@@ -306,15 +326,25 @@ export interface TrialSummary {
  * records (aggregation hot path). Throws like classifyTrial.
  */
 export function summariseTrial(trial: Pick<TrialInput, 'id' | 'status' | 'startDate' | 'checkIns' | 'outcomeOverride'>): TrialSummary {
+  return summariseTrialInto(trial, { outcome: null, eventMask: 0, daysToConsumption: null, followUpDays: null, springtails: false });
+}
+
+/**
+ * As summariseTrial, writing the summary fields into `target` (which it
+ * returns) instead of a new object. Throws like classifyTrial.
+ */
+export function summariseTrialInto<T extends TrialSummary>(
+  trial: Pick<TrialInput, 'id' | 'status' | 'startDate' | 'checkIns' | 'outcomeOverride'>,
+  target: T,
+): T {
   const r = readTrial(trial);
   const override = trial.outcomeOverride ?? null;
-  return {
-    outcome: override ?? outcomeFromReading(r, trial.status),
-    eventMask: r.eventMask,
-    daysToConsumption: consumptionDays(r, override),
-    followUpDays: r.n === 0 ? null : r.lastDay,
-    springtails: r.springtails,
-  };
+  target.outcome = override ?? outcomeFromReading(r, trial.status);
+  target.eventMask = r.eventMask;
+  target.daysToConsumption = consumptionDays(r, override);
+  target.followUpDays = r.n === 0 ? null : r.lastDay;
+  target.springtails = r.springtails;
+  return target;
 }
 
 /** Adverse events in an event mask, in ADVERSE_EVENTS order. Throws nothing. */

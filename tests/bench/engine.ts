@@ -97,9 +97,13 @@ interface Row {
   retainedMB: number;
 }
 
+/**
+ * One size at a time, so each size runs with only its own input on the heap
+ * (holding every input at once makes the small sizes pay for collecting the big one).
+ */
 function bench(n: number, runs: number): Row {
   // JSON round trip: inputs look like what an API or database hands over (flat strings, plain objects)
-  const trials = JSON.parse(JSON.stringify(makeTrials(n))) as TrialInput[];
+  let trials: TrialInput[] | null = JSON.parse(JSON.stringify(makeTrials(n))) as TrialInput[];
   for (let w = 0; w < 3; w++) aggregateFeedstock(trials); // warm-up (JIT)
   const times: number[] = [];
   const cpuTimes: number[] = [];
@@ -113,15 +117,17 @@ function bench(n: number, runs: number): Row {
     const result = aggregateFeedstock(trials);
     const t1 = performance.now();
     const c1 = process.cpuUsage(c0);
-    cpuTimes.push((c1.user + c1.system) / 1000);
     const after = process.memoryUsage().heapUsed;
     gc();
     const kept = process.memoryUsage().heapUsed;
+    if (result.groups.length === 0) throw new Error('no groups');
     times.push(t1 - t0);
+    cpuTimes.push((c1.user + c1.system) / 1000);
     heapDelta = Math.max(heapDelta, after - before);
     retained = Math.max(retained, kept - before);
-    if (result.groups.length === 0) throw new Error('no groups');
   }
+  trials = null;
+  gc();
   return {
     n,
     runs,
@@ -133,7 +139,7 @@ function bench(n: number, runs: number): Row {
   };
 }
 
-const rows = [bench(1_000, 9), bench(10_000, 9), bench(100_000, 5)];
+const rows = [bench(1_000, 15), bench(10_000, 11), bench(100_000, 5)];
 console.log('Evidence engine: aggregateFeedstock, one feedstock, 10 check-ins per trial');
 console.log('trials   runs  median ms   min ms  CPU median ms  heap delta MB*  result retained MB');
 for (const r of rows) {
