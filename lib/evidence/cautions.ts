@@ -2,7 +2,7 @@
  * Cautions: for each adverse event, how many trials showed it and at which
  * surface loads ("heating in 3 of 5 trials, all above 6 kg/m²").
  */
-import { formatLoad } from './derivation';
+import { formatLoad } from './units';
 import { ADVERSE_EVENTS, ADVERSE_EVENT_WORDS } from './outcome';
 import type { AdverseEvent, Caution } from './types';
 

@@ -17,7 +17,9 @@ import type {
   Verdict,
   WhatWouldChange,
 } from './types';
+import { formatLoad } from './units';
 import { VERDICT_LABELS } from './verdict';
+
 
 /** Words for settings, used inside sentences. */
 export const SETTING_WORDS: Readonly<Record<Setting, string>> = {
@@ -49,22 +51,6 @@ export function countWord(k: number): string {
 
 function capitalise(s: string): string {
   return s.length === 0 ? s : s[0].toUpperCase() + s.slice(1);
-}
-
-function trimZeros(s: string): string {
-  return s.includes('.') ? s.replace(/0+$/, '').replace(/\.$/, '') : s;
-}
-
-/**
- * A load (kg/m²) for sentences: whole numbers from 10, one decimal from 1,
- * two decimals from 0.1, two significant figures below. Throws RangeError on non-finite input.
- */
-export function formatLoad(x: number): string {
-  if (!Number.isFinite(x)) throw new RangeError('load must be finite');
-  if (x >= 10) return String(Math.round(x));
-  if (x >= 1) return trimZeros(x.toFixed(1));
-  if (x >= 0.1) return trimZeros(x.toFixed(2));
-  return String(Number(x.toPrecision(2)));
 }
 
 /** A share 0..1 as a whole percentage, "88%". Throws nothing. */
@@ -140,9 +126,8 @@ export function groupSentences(g: GroupSentenceInput): string[] {
             ? `95% interval ${km.medianLower}–${km.medianUpper} days`
             : `95% interval from ${km.medianLower} days, upper end not reached`
           : '95% interval not estimable';
-      out.push(
-        `Half of the doses were eaten by day ${km.median} (${ci}; ${km.censored} of ${km.n} trials still open or never eaten, counted up to their last check-in).`,
-      );
+      const censored = km.censored > 0 ? `; ${km.censored} of ${km.n} trials still open or never eaten, counted up to their last check-in` : '';
+      out.push(`Half of the doses were eaten by day ${km.median} (${ci}${censored}).`);
     } else {
       out.push(`Fewer than half of the doses were eaten during follow-up (${km.events} of ${km.n} eaten; the rest counted up to their last check-in).`);
     }

@@ -183,3 +183,20 @@ export function kgPerM2ToLbPerFt2(kgPerM2: number): number {
 export function lbPerFt2ToKgPerM2(lbPerFt2: number): number {
   return (finite(lbPerFt2, 'load') * KG_PER_LB) / AREA_TO_M2.ft2;
 }
+
+function trimZeros(s: string): string {
+  return s.includes('.') ? s.replace(/0+$/, '').replace(/\.$/, '') : s;
+}
+
+/**
+ * A load (kg/m²) or other quantity for sentences: whole numbers from 10, one
+ * decimal from 1, two decimals from 0.1, two significant figures below.
+ * Throws RangeError on non-finite input.
+ */
+export function formatLoad(x: number): string {
+  if (!Number.isFinite(x)) throw new RangeError('load must be finite');
+  if (x >= 10) return String(Math.round(x));
+  if (x >= 1) return trimZeros(x.toFixed(1));
+  if (x >= 0.1) return trimZeros(x.toFixed(2));
+  return String(Number(x.toPrecision(2)));
+}

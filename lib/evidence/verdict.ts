@@ -19,6 +19,7 @@ import {
   VERDICT_RANK,
 } from './thresholds';
 import type { GroupVerdict, Preparation, ThresholdCheck, Verdict } from './types';
+import { formatLoad } from './units';
 
 const EPS = 1e-12;
 
@@ -142,12 +143,12 @@ export function groupVerdictRule(s: GroupRuleInput): GroupRuleResult {
     return {
       verdict: 'feed',
       checks,
-      because: `consumed reliably up to ${c} kg/m² (at least the ordinary ${ORDINARY_LOAD_KGM2} kg/m²), the lower 95% bound of the consumed share is ${pct(s.successLower as number)} (at least ${pct(FEED_MIN_SUCCESS_LOWER)}) and harm in ${harm} of ${finished} (at most ${pct(FEED_MAX_HARM_SHARE)})`,
+      because: `consumed reliably up to ${formatLoad(c as number)} kg/m² (at least the ordinary ${ORDINARY_LOAD_KGM2} kg/m²), the lower 95% bound of the consumed share is ${pct(s.successLower as number)} (at least ${pct(FEED_MIN_SUCCESS_LOWER)}) and harm in ${harm} of ${finished} (at most ${pct(FEED_MAX_HARM_SHARE)})`,
     };
   }
   const missing: string[] = [];
   if (c === null) missing.push('no tested load was consumed reliably, though most trials were taken');
-  else if (!feedCeiling) missing.push(`the ceiling of ${c} kg/m² is below the ordinary load of ${ORDINARY_LOAD_KGM2} kg/m²`);
+  else if (!feedCeiling) missing.push(`the ceiling of ${formatLoad(c)} kg/m² is below the ordinary load of ${ORDINARY_LOAD_KGM2} kg/m²`);
   if (!feedLower && c !== null) {
     missing.push(`the lower 95% bound of the consumed share is ${pct(s.successLower ?? 0)} (under ${pct(FEED_MIN_SUCCESS_LOWER)})`);
   }

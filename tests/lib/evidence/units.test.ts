@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import {
   convertArea,
+  countWord,
+  formatLoad,
   convertLength,
   convertMass,
   convertTemperature,
@@ -107,5 +109,21 @@ describe('NIST SP 811 conversion factors', () => {
     expect(() => toKg(Infinity, 'kg')).toThrow(RangeError);
     expect(() => fToC(Number.NaN)).toThrow(RangeError);
     expect(() => lbPerYd3ToKgPerM3(-Infinity)).toThrow(RangeError);
+  });
+});
+
+describe('number words for sentences', () => {
+  it('formatLoad and countWord', () => {
+    // project wording rule (units.ts formatLoad, derivation.ts countWord)
+    expect(formatLoad(6)).toBe('6');
+    expect(formatLoad(6.04)).toBe('6');
+    expect(formatLoad(12.6)).toBe('13');
+    expect(formatLoad(1.24)).toBe('1.2');
+    expect(formatLoad(0.25)).toBe('0.25');
+    expect(formatLoad(0.0123)).toBe('0.012');
+    expect(() => formatLoad(Infinity)).toThrow(RangeError);
+    expect(countWord(2)).toBe('two');
+    expect(countWord(12)).toBe('12');
+    expect(() => countWord(-1)).toThrow(RangeError);
   });
 });
