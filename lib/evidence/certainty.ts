@@ -56,10 +56,10 @@ export function gradeCertainty(input: CertaintyInput): Certainty {
   const base = baseGrade(finishedContributors);
   const baseReason =
     finishedContributors === 0
-      ? 'started at very low: no finished trials'
+      ? 'started at very low with no finished trials'
       : finishedContributors === 1
-      ? 'started at very low: finished trials from 1 keeper'
-      : `started at ${base}: finished trials from ${finishedContributors} independent keepers`;
+      ? 'started at very low with finished trials from 1 keeper'
+      : `started at ${base} with finished trials from ${finishedContributors} independent keepers`;
   const downgrades: CertaintyDowngrade[] = [];
   if (finished > 0) {
     const bias: string[] = [];

@@ -17,7 +17,7 @@ describe('certainty (GRADE terms)', () => {
     // project rule (thresholds.ts CERTAINTY_BASE_BY_CONTRIBUTORS): ≥5 high, 3–4 moderate, 2 low, ≤1 very low
     expect(CERTAINTY_BASE_BY_CONTRIBUTORS.map((r) => r.min)).toEqual([5, 3, 2, 0]);
     expect([0, 1, 2, 3, 4, 5, 9].map(baseGrade)).toEqual(['very low', 'very low', 'low', 'moderate', 'moderate', 'high', 'high']);
-    expect(gradeCertainty(good)).toStrictEqual({ grade: 'high', base: 'high', baseReason: 'started at high: finished trials from 6 independent keepers', downgrades: [] });
+    expect(gradeCertainty(good)).toStrictEqual({ grade: 'high', base: 'high', baseReason: 'started at high with finished trials from 6 independent keepers', downgrades: [] });
   });
 
   it('risk of bias: one level per missing safeguard, below half of trials', () => {
@@ -63,7 +63,7 @@ describe('certainty (GRADE terms)', () => {
     expect(worst.grade).toBe('very low');
     const none = gradeCertainty({ finished: 0, finishedContributors: 0, withControl: 0, withPhotos: 0, disagreements: 0, successLower: null, successUpper: null });
     expect(none.grade).toBe('very low');
-    expect(none.baseReason).toBe('started at very low: no finished trials');
+    expect(none.baseReason).toBe('started at very low with no finished trials');
     expect(() => gradeCertainty({ ...good, withControl: 11 })).toThrow(RangeError);
     expect(() => baseGrade(-1)).toThrow(RangeError);
   });
