@@ -1,5 +1,5 @@
 import 'server-only';
-import { Sequelize, type Options } from 'sequelize';
+import { QueryTypes, Sequelize, type Options } from 'sequelize';
 import { getEnv } from '@/lib/env';
 
 /**
@@ -39,3 +39,9 @@ const globalForDb = globalThis as unknown as { __trialbedSequelize?: Sequelize }
 /** The one Sequelize instance of the process (kept across dev reloads). */
 export const sequelize: Sequelize = globalForDb.__trialbedSequelize ?? createSequelize();
 globalForDb.__trialbedSequelize = sequelize;
+
+/** Runs a raw UPDATE/DELETE and returns the number of rows it changed. */
+export async function execWrite(sql: string, options: { replacements?: unknown[] | Record<string, unknown>; transaction?: import('sequelize').Transaction } = {}): Promise<number> {
+  const [, affected] = (await sequelize.query(sql, { ...options, type: QueryTypes.UPDATE })) as unknown as [unknown, number];
+  return Number(affected ?? 0);
+}
