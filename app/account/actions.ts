@@ -20,7 +20,8 @@ export async function saveUnits(_prev: ActionState, formData: FormData): Promise
 export async function acceptContributionLicence(_prev: ActionState, formData: FormData): Promise<ActionState> {
   try {
     await acceptLicence(await getActor(), { accept: formData.get('accept') ?? undefined });
-    revalidatePath('/', 'layout');
+    // The page re-renders as a contributor's (role, date of acceptance).
+    revalidatePath('/account');
     return { ok: true, message: 'Thank you. You are now a contributor: you can log trials, propose verdicts and vote.' };
   } catch (err) {
     return toActionState(err);

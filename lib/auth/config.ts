@@ -11,6 +11,9 @@ import { SESSION_MAX_AGE_SECONDS, SESSION_UPDATE_AGE_SECONDS, usesSecureCookies 
 /** How long an e-mail sign-in link works. */
 export const SIGN_IN_LINK_MAX_AGE_SECONDS = 24 * 60 * 60;
 
+/** Auth.js errors caused by the request (bad or stale input), logged in one line. */
+const CLIENT_ERRORS = new Set(['MissingCSRF', 'Verification', 'AccessDenied', 'InvalidCheck', 'UnknownAction']);
+
 type AdapterModels = NonNullable<Parameters<typeof SequelizeAdapter>[1]>['models'];
 
 /**
@@ -47,6 +50,15 @@ export function buildAuthConfig(): NextAuthConfig {
       }),
     ],
     pages: { signIn: '/signin', verifyRequest: '/signin/check-email', error: '/signin' },
+    logger: {
+      // A stale link, a missing CSRF token or a refused account is the visitor's
+      // doing, not ours: one line. Anything else keeps its stack.
+      error(error) {
+        const type = (error as { type?: string }).type ?? error.name;
+        if (CLIENT_ERRORS.has(type)) console.warn(`[auth] ${type}: ${error.message.split('\n')[0]}`);
+        else console.error('[auth]', error);
+      },
+    },
     callbacks: {
       // A disabled account gets no link and no session.
       signIn({ user }) {
