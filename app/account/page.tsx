@@ -31,20 +31,20 @@ export default async function AccountPage() {
         <h2 id="who-heading" className="text-2xl">
           Who you are here
         </h2>
-        <dl className="m-0 grid gap-x-4 gap-y-2 sm:grid-cols-[10rem_1fr]">
+        <dl className="grid gap-x-4 gap-y-2 sm:grid-cols-[10rem_1fr]">
           <dt className="font-semibold">E-mail</dt>
-          <dd className="m-0 break-all">
+          <dd className="break-all">
             {account.email} {account.emailVerified ? <span className="text-ink-muted">(confirmed)</span> : <span className="text-ink-muted">(not confirmed yet)</span>}
           </dd>
           <dt className="font-semibold">Role</dt>
-          <dd className="m-0">
+          <dd>
             <span className="font-semibold capitalize">{account.role}</span> — {ROLE_DESCRIPTIONS[account.role]}
           </dd>
           <dt className="font-semibold">Member since</dt>
-          <dd className="m-0">{dateFormat.format(new Date(account.joinedAt))}</dd>
+          <dd>{dateFormat.format(new Date(account.joinedAt))}</dd>
         </dl>
         {account.can.manageUsers ? (
-          <p className="m-0">
+          <p>
             <Link href="/admin/users" className={buttonClasses('secondary')}>
               Manage users and roles
             </Link>
@@ -65,7 +65,7 @@ export default async function AccountPage() {
         </h2>
         {account.role === 'reader' ? (
           <>
-            <p className="m-0">
+            <p>
               Readers can read and subscribe. To log trials, propose verdicts and vote, accept the contribution licence: what you
               write and record is shared with everyone under{' '}
               <a href={CONTRIBUTION_LICENCE.url}>{CONTRIBUTION_LICENCE.name}</a>, like the rest of the site.
@@ -73,16 +73,16 @@ export default async function AccountPage() {
             {account.can.acceptLicence ? (
               <LicenceForm licenceName={CONTRIBUTION_LICENCE.name} licenceUrl={CONTRIBUTION_LICENCE.url} />
             ) : (
-              <p className="m-0 font-semibold">Confirm your e-mail address first: sign out and sign in once with an e-mail link.</p>
+              <p className="font-semibold">Confirm your e-mail address first: sign out and sign in once with an e-mail link.</p>
             )}
           </>
         ) : account.licenceAcceptedAt ? (
-          <p className="m-0">
+          <p>
             You accepted the contribution licence on {dateFormat.format(new Date(account.licenceAcceptedAt))}: what you contribute
             is shared under <a href={CONTRIBUTION_LICENCE.url}>{CONTRIBUTION_LICENCE.name}</a>.
           </p>
         ) : (
-          <p className="m-0">
+          <p>
             Your contributions are shared under <a href={CONTRIBUTION_LICENCE.url}>{CONTRIBUTION_LICENCE.name}</a>.
           </p>
         )}
@@ -92,7 +92,7 @@ export default async function AccountPage() {
         <h2 id="subscriptions-heading" className="text-2xl">
           Subscriptions
         </h2>
-        <p className="m-0">
+        <p>
           Subscriptions come in a later version of Trialbed. Then you will be able to follow a feedstock from its page and get an
           e-mail — straight away or as a weekly digest — when its verdict is decided, a trial is linked, a proposal opens or its
           page is edited. You have no subscriptions yet, and we send you no mail except the sign-in links you ask for.
@@ -103,7 +103,7 @@ export default async function AccountPage() {
         <h2 id="signout-heading" className="text-2xl">
           Sign out
         </h2>
-        <p className="m-0">Signing out ends this session on this device.</p>
+        <p>Signing out ends this session on this device.</p>
         <div className="flex">
           <SignOutButton className={buttonClasses('secondary')} />
         </div>

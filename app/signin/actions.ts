@@ -20,6 +20,8 @@ export type SignInFormState = ActionState & { email?: string };
  * Auth.js create the token and send the mail.
  */
 export async function requestSignInLink(_prev: SignInFormState, formData: FormData): Promise<SignInFormState> {
+  // Given back on failure so the form shows what was typed.
+  const typed = typeof formData.get('email') === 'string' ? String(formData.get('email')).slice(0, 254) : undefined;
   try {
     const input = SignInRequestSchema.parse({
       email: formData.get('email') ?? undefined,
@@ -28,11 +30,11 @@ export async function requestSignInLink(_prev: SignInFormState, formData: FormDa
     await enforceSignInMailLimits({ email: input.email, clientIp: clientIpFrom(await headers()) });
     const next = await signIn('nodemailer', { email: input.email, redirect: false, redirectTo: input.callbackUrl ?? '/account' });
     const error = new URL(String(next), 'http://localhost').searchParams.get('error');
-    if (error === 'AccessDenied') return { ok: false, message: 'This address cannot sign in here. If you think that is a mistake, ask the site admins.' };
-    if (error) return { ok: false, message: 'We could not send the e-mail just now. Please try again in a minute.' };
+    if (error === 'AccessDenied') return { ok: false, email: typed, message: 'This address cannot sign in here. If you think that is a mistake, ask the site admins.' };
+    if (error) return { ok: false, email: typed, message: 'We could not send the e-mail just now. Please try again in a minute.' };
     return { ok: true, email: input.email, message: `We sent a sign-in link to ${input.email}.` };
   } catch (err) {
-    return toActionState(err);
+    return { ...toActionState(err), email: typed };
   }
 }
 

@@ -52,10 +52,10 @@ export default async function SignInPage({ searchParams }: { searchParams: Searc
 
       {actor ? (
         <Card className="space-y-2">
-          <p className="m-0">
+          <p>
             You are signed in as <strong>{actor.email}</strong> ({actor.role}).
           </p>
-          <p className="m-0">
+          <p>
             <Link href={callbackUrl ?? '/account'}>Continue to {callbackUrl && callbackUrl !== '/account' ? 'the page you asked for' : 'your account'}</Link>
           </p>
         </Card>
@@ -73,11 +73,11 @@ export default async function SignInPage({ searchParams }: { searchParams: Searc
           <h2 id="demo-heading" className="text-2xl">
             Demo accounts
           </h2>
-          <p className="m-0">
+          <p>
             This site runs in demo mode: try each role as one of the invented people of the demo scenario, without e-mail.
             {actor ? ' Choosing one replaces your current session.' : null}
           </p>
-          <ul className="m-0 grid list-none gap-4 p-0 sm:grid-cols-2">
+          <ul className="grid list-none gap-4 p-0 sm:grid-cols-2">
             {demoAccounts.map((d) => (
               <li key={d.role}>
                 <DemoSignInButton role={d.role} name={d.name} description={ROLE_DESCRIPTIONS[d.role]} available={d.available} />

@@ -19,7 +19,7 @@ export function DemoSignInButton({ role, name, description, available }: DemoSig
           Sign in as {name} <span className="font-normal text-ink-muted">({role})</span>
         </span>
       </button>
-      <p className="m-0 text-sm text-ink-muted">{available ? description : 'Not in this database.'}</p>
+      <p className="text-sm text-ink-muted">{available ? description : 'Not in this database.'}</p>
       <FormMessage state={state} />
     </form>
   );

@@ -4,7 +4,7 @@ import { cx } from '@/components/ui/class-names';
 /** The outcome line under a form: announced politely, red for errors, moss for success. */
 export function FormMessage({ state, className }: { state: ActionState; className?: string }) {
   return (
-    <p aria-live="polite" className={cx('m-0 min-h-6 text-sm font-semibold', state.ok ? 'text-accent-strong' : 'text-danger', className)}>
+    <p aria-live="polite" className={cx('text-sm font-semibold', state.ok ? 'text-accent-strong' : 'text-danger', className)}>
       {state.message ?? null}
     </p>
   );

@@ -12,7 +12,7 @@ export function LicenceForm({ licenceName, licenceUrl }: { licenceName: string; 
   const error = fieldError(state, 'accept');
   if (state.ok) {
     return (
-      <p role="status" className="m-0 rounded-md bg-accent-soft p-3 font-semibold text-accent-strong">
+      <p role="status" className="rounded-md bg-accent-soft p-3 font-semibold text-accent-strong">
         {state.message}
       </p>
     );
@@ -35,7 +35,7 @@ export function LicenceForm({ licenceName, licenceUrl }: { licenceName: string; 
         </span>
       </label>
       {error ? (
-        <p id="accept-error" className="m-0 text-sm font-semibold text-danger">
+        <p id="accept-error" className="text-sm font-semibold text-danger">
           {error}
         </p>
       ) : null}

@@ -28,7 +28,7 @@ export function UnitsForm({ units }: { units: 'metric' | 'imperial' }) {
           </label>
         ))}
         {error ? (
-          <p id="units-error" className="m-0 text-sm font-semibold text-danger">
+          <p id="units-error" className="text-sm font-semibold text-danger">
             {error}
           </p>
         ) : null}

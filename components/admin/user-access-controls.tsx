@@ -61,7 +61,7 @@ export function UserAccessControls({ userId, label, role, roles, disabled, canDi
           <FormMessage state={disState} className="mt-1" />
         </form>
       ) : (
-        <p className="m-0 text-sm text-ink-muted">This is you: another admin can change your access.</p>
+        <p className="text-sm text-ink-muted">This is you: another admin can change your access.</p>
       )}
     </div>
   );

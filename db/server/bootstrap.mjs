@@ -33,7 +33,9 @@ function readDotEnv(file) {
     const m = line.match(/^\s*([A-Za-z_][A-Za-z0-9_]*)\s*=\s*(.*)\s*$/);
     if (!m) continue;
     let v = m[2];
-    if ((v.startsWith('"') && v.endsWith('"')) || (v.startsWith("'") && v.endsWith("'"))) v = v.slice(1, -1);
+    if (/^(["']).*\1$/.test(v)) v = v.slice(1, -1);
+    // An unquoted value ends at a ` #` comment, as in .env.example.
+    else v = v.replace(/\s+#.*$/, '').trim();
     out[m[1]] = v;
   }
   return out;

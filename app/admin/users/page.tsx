@@ -88,14 +88,14 @@ export default async function AdminUsersPage({ searchParams }: { searchParams: S
           {list.total} {list.total === 1 ? 'account' : 'accounts'}
           {list.q ? ` matching “${list.q}”` : ''}
         </h2>
-        <ul className="m-0 grid list-none gap-3 p-0">
+        <ul className="grid list-none gap-3 p-0">
           {list.users.map((u) => (
             <li key={u.id}>
               <Card className="grid gap-3 md:grid-cols-[1fr_auto] md:items-start">
                 <div className="min-w-0 space-y-1">
-                  <p className="m-0 break-all font-semibold">{u.email ?? '(no e-mail)'}</p>
-                  <p className="m-0 text-ink-muted">{u.name ?? 'No name given'}</p>
-                  <p className="m-0 flex flex-wrap gap-2">
+                  <p className="break-all font-semibold">{u.email ?? '(no e-mail)'}</p>
+                  <p className="text-ink-muted">{u.name ?? 'No name given'}</p>
+                  <p className="flex flex-wrap gap-2">
                     <Badge tone="accent" className="capitalize">
                       {u.role}
                     </Badge>
@@ -103,7 +103,7 @@ export default async function AdminUsersPage({ searchParams }: { searchParams: S
                     {!u.emailVerified ? <Badge tone="outline">E-mail not confirmed</Badge> : null}
                     {u.isDemo ? <Badge tone="outline">Demo</Badge> : null}
                   </p>
-                  <p className="m-0 text-sm text-ink-muted">
+                  <p className="text-sm text-ink-muted">
                     Joined {when.format(new Date(u.joinedAt))}
                     {u.licenceAccepted ? ' · licence accepted' : ' · licence not accepted'}
                   </p>
@@ -136,7 +136,7 @@ export default async function AdminUsersPage({ searchParams }: { searchParams: S
           Recent account changes
         </h2>
         {changes.length ? (
-          <ol className="m-0 list-none space-y-2 p-0">
+          <ol className="list-none space-y-2 p-0">
             {changes.map((c) => (
               <li key={c.id} className="border-b border-line pb-2">
                 <span className="font-semibold">{c.subjectEmail ?? 'a deleted account'}</span>: {describeChange(c.action, c.details)}
@@ -148,7 +148,7 @@ export default async function AdminUsersPage({ searchParams }: { searchParams: S
             ))}
           </ol>
         ) : (
-          <p className="m-0">No account changes yet.</p>
+          <p>No account changes yet.</p>
         )}
       </section>
     </div>

@@ -43,17 +43,17 @@ export default function MailboxPage() {
       {mails.length === 0 ? (
         <p className="rounded-lg border border-line bg-surface-raised p-4">No mail yet. Ask for a sign-in link and reload this page.</p>
       ) : (
-        <ol className="m-0 list-none space-y-4 p-0">
+        <ol className="list-none space-y-4 p-0">
           {mails.map((m) => (
             <li key={m.id}>
               <article aria-labelledby={`mail-${m.id}`} className="space-y-2 rounded-lg border border-line bg-surface-raised p-4">
                 <h2 id={`mail-${m.id}`} className="text-xl">
                   {m.subject || '(no subject)'}
                 </h2>
-                <p className="m-0 text-sm text-ink-muted">
+                <p className="text-sm text-ink-muted">
                   To {m.to.join(', ')} · {whenTime.format(new Date(m.receivedAt))} UTC
                 </p>
-                <pre className="m-0 whitespace-pre-wrap break-words font-sans text-base">{linkify(m.text)}</pre>
+                <pre className="whitespace-pre-wrap break-words font-sans text-base">{linkify(m.text)}</pre>
               </article>
             </li>
           ))}
