@@ -1,10 +1,11 @@
 'use server';
 
-import { headers } from 'next/headers';
+import { cookies, headers } from 'next/headers';
 import { revalidatePath } from 'next/cache';
 import { redirect } from 'next/navigation';
 import { signIn, signOut } from '@/lib/auth';
 import { clientIpFrom } from '@/lib/auth/client-ip';
+import { SESSION_COOKIE_NAMES } from '@/lib/auth/cookies';
 import { writeSessionCookie } from '@/lib/auth/session-cookie';
 import { toActionState, type ActionState } from '@/lib/errors';
 import { startDemoSession } from '@/lib/services/accounts';
@@ -45,6 +46,9 @@ export async function requestSignInLink(_prev: SignInFormState, formData: FormDa
 export async function signInAsDemo(_prev: ActionState, formData: FormData): Promise<ActionState> {
   try {
     const session = await startDemoSession({ role: formData.get('role') ?? undefined });
+    // Switching accounts: end the current session first, so its row does not linger.
+    const cookieNames = (await cookies()).getAll().map((c) => c.name);
+    if (SESSION_COOKIE_NAMES.some((n) => cookieNames.includes(n))) await signOut({ redirect: false });
     await writeSessionCookie(session.sessionToken, session.expires);
   } catch (err) {
     return toActionState(err);

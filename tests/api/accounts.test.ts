@@ -372,6 +372,18 @@ describe('accounts and roles over HTTP', () => {
       expect(await Session.count({ where: { sessionToken: cookie!.value } })).toBe(0);
     });
 
+    it('switching to a demo account ends the current session', async () => {
+      const person = await user('contributor');
+      const { token, cookie } = await openSession(person);
+      const call = await callServerAction(baseUrl, loadBuiltActions().get('app/signin/actions.ts#signInAsDemo')!, { role: 'editor' }, { cookie });
+      expect(call.redirect).toBe('/account');
+      expect(await Session.count({ where: { sessionToken: token } })).toBe(0);
+      const fresh = parseSetCookies(call.setCookie).get('authjs.session-token');
+      expect(fresh?.value).toBeTruthy();
+      expect(fresh!.value).not.toBe(token);
+      expect((await request(app.server).get('/api/account').set('Cookie', `authjs.session-token=${fresh!.value}`)).body.account.role).toBe('editor');
+    });
+
     it('an unknown demo role is refused with a field message', async () => {
       const action = loadBuiltActions().get('app/signin/actions.ts#signInAsDemo')!;
       const call = await callServerAction(baseUrl, action, { role: 'overlord' });
