@@ -2,6 +2,7 @@ import type { Metadata, Viewport } from 'next';
 import type { ReactNode } from 'react';
 import { bodyFont, headingFont } from '@/fonts';
 import { SiteFooter } from '@/components/layout/site-footer';
+import { AccountNav } from '@/components/layout/account-nav';
 import { SiteHeader } from '@/components/layout/site-header';
 import { SkipLink } from '@/components/layout/skip-link';
 import './globals.css';
@@ -28,7 +29,7 @@ export default function RootLayout({ children }: { children: ReactNode }) {
     <html lang="en" className={`${bodyFont.variable} ${headingFont.variable}`}>
       <body className="flex min-h-dvh flex-col">
         <SkipLink />
-        <SiteHeader />
+        <SiteHeader account={(place) => <AccountNav {...place} />} />
         <main id="main" tabIndex={-1} className="mx-auto w-full max-w-page flex-1 px-4 py-8 focus:outline-none">
           {children}
         </main>

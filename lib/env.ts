@@ -18,6 +18,8 @@ const EnvSchema = z.object({
   DATA_DIR: z.string().default('.data'),
   AUTH_URL: z.string().url().default('http://localhost:3000'),
   TRIALBED_DEMO: z.enum(['0', '1']).default('0'),
+  /** 1: show the captured-mail page /dev/mailbox even when demo mode is off (local work only). */
+  MAILBOX: z.enum(['0', '1']).default('0'),
   SMTP_HOST: z.string().default('127.0.0.1'),
   SMTP_PORT: z.coerce.number().int().positive().default(2525),
   SMTP_USER: z.string().default(''),
@@ -45,4 +47,14 @@ export function getEnv(): Env {
 /** True when the invented demo scenario and its sign-in shortcuts are on. */
 export function isDemoMode(): boolean {
   return getEnv().TRIALBED_DEMO === '1';
+}
+
+/**
+ * True when /dev/mailbox shows the mail caught by the local capture server:
+ * in demo mode (`npm start`) or with MAILBOX=1. Never on a real site: the
+ * page shows everyone's sign-in links.
+ */
+export function isMailboxEnabled(): boolean {
+  const env = getEnv();
+  return env.TRIALBED_DEMO === '1' || env.MAILBOX === '1';
 }

@@ -84,11 +84,15 @@ export function toErrorResponse(err: unknown): { status: number; body: { error: 
   return { status: 500, body: { error: { code: 'internal', message: 'Something went wrong on our side.' } } };
 }
 
-/** The state a server action returns to its form (`useActionState`). */
-export type ActionState = { ok: boolean; message?: string; fieldErrors?: FieldErrors };
+/**
+ * The state a server action returns to its form (`useActionState`). On
+ * failure `code` is the error's stable code (`unauthenticated`, `forbidden`,
+ * `invalid_input` …), as in the JSON error body of route handlers.
+ */
+export type ActionState = { ok: boolean; message?: string; fieldErrors?: FieldErrors; code?: string };
 
 /** Maps an error to a server-action state for the form that called it. */
 export function toActionState(err: unknown): ActionState {
   const { body } = toErrorResponse(err);
-  return { ok: false, message: body.error.message, fieldErrors: body.error.fieldErrors };
+  return { ok: false, code: body.error.code, message: body.error.message, fieldErrors: body.error.fieldErrors };
 }

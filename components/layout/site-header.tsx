@@ -6,13 +6,17 @@ import { NAV_ITEMS } from './nav-items';
 import { NavLink } from './nav-link';
 import { TrialbedMark } from './trialbed-mark';
 
+/** Where the account slot is drawn: inline in the wide header, or in the small-screen menu. */
+export type AccountSlotPlace = { linkClassName: string; buttonClassName: string };
+
 export type SiteHeaderProps = {
   /**
-   * The account link(s). Defaults to "Sign in"; the auth work can pass the
-   * signed-in user's menu here. It is rendered twice (wide header and the
-   * small-screen menu), so keep it free of ids.
+   * The account link(s). Defaults to "Sign in"; app/layout.tsx passes the
+   * account links (components/layout/account-nav.tsx). A function is called
+   * once per place with that place's link and button classes. It is rendered
+   * twice (wide header and the small-screen menu), so keep it free of ids.
    */
-  account?: ReactNode;
+  account?: ReactNode | ((place: AccountSlotPlace) => ReactNode);
 };
 
 const inlineLink =
@@ -22,6 +26,14 @@ const inlineLink =
 const menuLink =
   'flex min-h-12 items-center rounded-md px-3 text-lg font-semibold text-ink no-underline ' +
   'hover:bg-surface-sunken hover:text-ink aria-[current=page]:bg-accent-soft aria-[current=page]:text-accent-strong';
+
+const inlineButton =
+  'inline-flex min-h-touch cursor-pointer items-center rounded-md border border-line-strong px-3 font-semibold text-ink ' +
+  'hover:bg-surface-sunken disabled:cursor-wait disabled:opacity-60';
+
+const menuButton =
+  'flex min-h-12 w-full cursor-pointer items-center rounded-md px-3 text-left text-lg font-semibold text-ink ' +
+  'hover:bg-surface-sunken disabled:cursor-wait disabled:opacity-60';
 
 function SignInLink({ className }: { className: string }) {
   return (
@@ -37,6 +49,9 @@ function SignInLink({ className }: { className: string }) {
  * navigation and search fold into a <details> menu that needs no JavaScript.
  */
 export function SiteHeader({ account }: SiteHeaderProps) {
+  const accountAt = (place: AccountSlotPlace) => (typeof account === 'function' ? account(place) : account);
+  const inlineAccount = accountAt({ linkClassName: inlineLink, buttonClassName: inlineButton });
+  const menuAccount = accountAt({ linkClassName: menuLink, buttonClassName: menuButton });
   return (
     <header className="border-b border-line bg-surface-raised">
       <DemoBanner />
@@ -63,7 +78,7 @@ export function SiteHeader({ account }: SiteHeaderProps) {
         </nav>
         <div className="ml-auto hidden items-center gap-2 lg:flex">
           <SearchBox variant="compact" id="search-header-q" className="w-56 xl:w-64" />
-          {account ?? <SignInLink className={inlineLink} />}
+          {inlineAccount ?? <SignInLink className={inlineLink} />}
         </div>
 
         {/* Small screens: a disclosure, no JavaScript needed */}
@@ -96,8 +111,8 @@ export function SiteHeader({ account }: SiteHeaderProps) {
                     </NavLink>
                   </li>
                 ))}
-                <li className="mt-1 border-t border-line pt-2">
-                  {account ?? <SignInLink className={menuLink} />}
+                <li className="mt-1 flex flex-col gap-1 border-t border-line pt-2">
+                  {menuAccount ?? <SignInLink className={menuLink} />}
                 </li>
               </ul>
             </nav>

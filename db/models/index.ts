@@ -12,6 +12,7 @@ import { OutboxMessage } from './OutboxMessage';
 import { Photo } from './Photo';
 import { Proposal, ProposalTrial, Vote } from './Proposal';
 import { PublishedVerdict, VerdictHistory } from './PublishedVerdict';
+import { RateLimit } from './RateLimit';
 import { Session } from './Session';
 import { Subscription } from './Subscription';
 import { Trial } from './Trial';
@@ -67,6 +68,7 @@ export {
   Proposal,
   ProposalTrial,
   PublishedVerdict,
+  RateLimit,
   Session,
   Subscription,
   Trial,

@@ -33,7 +33,9 @@ function readDotEnv(file) {
     const m = line.match(/^\s*([A-Za-z_][A-Za-z0-9_]*)\s*=\s*(.*)\s*$/);
     if (!m) continue;
     let v = m[2];
-    if ((v.startsWith('"') && v.endsWith('"')) || (v.startsWith("'") && v.endsWith("'"))) v = v.slice(1, -1);
+    if (/^(["']).*\1$/.test(v)) v = v.slice(1, -1);
+    // An unquoted value ends at a ` #` comment, as in .env.example.
+    else v = v.replace(/\s+#.*$/, '').trim();
     out[m[1]] = v;
   }
   return out;
@@ -148,6 +150,25 @@ function spawnTracked(cmd, args, childEnv, { name } = {}) {
 
 const tsx = (script, ...args) => ['node', ['--conditions=react-server', '--import', 'tsx', script, ...args]];
 
+/**
+ * `npm start` only: the capture SMTP server (lib/mail/capture-server.ts) on
+ * 127.0.0.1:SMTP_PORT, storing mail under DATA_DIR/mailbox for /dev/mailbox.
+ * Skipped when SMTP_HOST points at a real provider. Tests start their own.
+ */
+function startCaptureSmtp(childEnv) {
+  const host = childEnv.SMTP_HOST ?? '127.0.0.1';
+  if (!['127.0.0.1', 'localhost', '::1'].includes(host)) {
+    log(`mail goes to ${host}:${childEnv.SMTP_PORT ?? 2525}; no capture server`);
+    return;
+  }
+  const port = childEnv.SMTP_PORT ?? '2525';
+  log(`capture SMTP server on 127.0.0.1:${port} (mail shows at /dev/mailbox)`);
+  const [cmd, args] = tsx('lib/mail/capture-server.ts');
+  spawnTracked(cmd, args, { ...childEnv, SMTP_PORT: port }, { name: 'capture SMTP server' }).then((r) => {
+    if (!shuttingDown && r.code !== 0) log(`the capture SMTP server stopped (exit ${r.code}); sign-in mail will fail until it runs`);
+  });
+}
+
 async function main() {
   ensureSystemPackages();
   ensureNodeModules();
@@ -192,6 +213,7 @@ async function main() {
 
   if (mode === 'start') {
     if (env.SKIP_BUILD !== '1') await step('building the app (next build)', ['npx', ['next', 'build']], { ...childEnv, NODE_ENV: 'production' });
+    startCaptureSmtp(childEnv);
     log(`serving on http://localhost:${appPort} (bound to 127.0.0.1); Ctrl-C stops everything`);
     const r = await spawnTracked('npx', ['next', 'start', '-H', '127.0.0.1', '-p', String(appPort)], { ...childEnv, NODE_ENV: 'production' });
     if (!shuttingDown) {

@@ -13,10 +13,15 @@ export type Actor = {
   disabled?: boolean;
   /** When the account was made; very new accounts cannot vote. */
   createdAt?: Date;
+  /** The person's units preference, for showing doses. */
+  units?: 'metric' | 'imperial';
 } | null;
 
-/** What a rule may look at besides the actor (ownership, authorship). */
-export type Resource = { ownerId?: string | null; authorId?: string | null } | undefined;
+/**
+ * What a rule may look at besides the actor: ownership and authorship, or
+ * `userId`, the account an admin action is aimed at.
+ */
+export type Resource = { ownerId?: string | null; authorId?: string | null; userId?: string | null } | undefined;
 
 /** Every action the app checks. One word per idea, as in PRODUCT.md. */
 export const ACTIONS = [
@@ -46,6 +51,8 @@ export const ACTIONS = [
   'account.update',
   'licence.accept',
   'user.manage',
+  'user.change-role',
+  'user.disable',
   'audit.view',
   'export.read',
 ] as const;
@@ -92,7 +99,12 @@ const RULES: Record<Action, (actor: Actor, resource: Resource) => boolean> = {
   'account.update': (a) => atLeast(a, 'reader'),
   // A reader becomes a contributor by accepting the licence once the e-mail is verified.
   'licence.accept': (a) => !!a && !a.disabled && a.role === 'reader' && a.emailVerified !== false,
+  // Admins list users and change roles. Whether a change would leave no admin
+  // depends on the other rows, so lib/services/accounts.ts checks that in its transaction.
   'user.manage': (a) => atLeast(a, 'admin'),
+  'user.change-role': (a) => atLeast(a, 'admin'),
+  // Nobody disables their own account (that would sign them out for good); another admin can.
+  'user.disable': (a, r) => atLeast(a, 'admin') && !!r?.userId && r.userId !== a!.id,
   'audit.view': (a) => atLeast(a, 'admin'),
 };
 

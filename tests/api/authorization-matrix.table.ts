@@ -1,0 +1,183 @@
+import type { User } from '@/db/models';
+import type { Role } from '@/lib/policies';
+
+/**
+ * THE AUTHORIZATION MATRIX: every route handler and every server action of
+ * the app × every role (and anonymous) → the expected outcome.
+ * tests/api/authorization-matrix.test.ts reads the app's files and fails
+ * when a route handler (any `route.ts` under app/, per exported method) or a
+ * server action (any export of an `actions.ts` file under app/) has no row
+ * here, or when a row names something that no longer exists.
+ *
+ * To add a row: copy one below. `request`/`fields` get a fresh cell — a new
+ * user of that role with a real session, plus `makeUser` for targets — so
+ * rows never share state. Optional `check` runs after the call and asserts
+ * what was (or was not) written.
+ */
+
+export type Who = 'anonymous' | Role;
+export const WHO: readonly Who[] = ['anonymous', 'reader', 'contributor', 'editor', 'moderator', 'admin'];
+
+/** One cell: who is calling, their user row (null for anonymous), and a factory for other users. */
+export type Cell = {
+  who: Who;
+  user: User | null;
+  makeUser: (attrs?: { role?: Role; licenceAccepted?: boolean }) => Promise<User>;
+};
+
+/** Expected HTTP status per caller. */
+export type StatusByWho = Record<Who, number>;
+
+/** Expected server-action outcome: `ok` (returned ok or redirected), or the error code it returned. */
+export type ActionOutcome = 'ok' | 'unauthenticated' | 'forbidden' | 'invalid_input' | 'not_found' | 'conflict' | 'rate_limited';
+export type OutcomeByWho = Record<Who, ActionOutcome>;
+
+export type RouteRow = {
+  /** "METHOD /pattern" exactly as the route file's folder: "PATCH /api/admin/users/[id]". */
+  route: string;
+  /** The concrete request for a cell: path (with query), optional JSON body or form body. */
+  request: (cell: Cell) => Promise<{ path: string; json?: unknown; form?: Record<string, string> }>;
+  expect: StatusByWho;
+  /** After the call: assert what changed (allowed) or did not (refused). */
+  check?: (cell: Cell, ctx: { allowed: boolean; status: number; body: unknown }) => Promise<void>;
+};
+
+export type ActionRow = {
+  /** "app/<path>/actions.ts#exportName". */
+  action: string;
+  /** The form fields the action receives (it is called as `(prevState, formData)`). */
+  fields: (cell: Cell) => Promise<Record<string, string>>;
+  expect: OutcomeByWho;
+  check?: (cell: Cell, ctx: { allowed: boolean; outcome: ActionOutcome }) => Promise<void>;
+};
+
+const all = <T>(v: T): Record<Who, T> => ({ anonymous: v, reader: v, contributor: v, editor: v, moderator: v, admin: v });
+const signedIn = <T>(anon: T, v: T): Record<Who, T> => ({ ...all(v), anonymous: anon });
+const adminOnly = <T>(anon: T, others: T, admin: T): Record<Who, T> => ({ ...all(others), anonymous: anon, admin });
+const readerOnly = <T>(anon: T, others: T, reader: T): Record<Who, T> => ({ ...all(others), anonymous: anon, reader });
+
+/** Role and disabled state of a user, fresh from the database. */
+async function access(user: User) {
+  await user.reload();
+  return { role: user.role, disabled: !!user.disabledAt, units: user.units };
+}
+
+export const ROUTE_ROWS: RouteRow[] = [
+  {
+    route: 'GET /api/health',
+    request: async () => ({ path: '/api/health' }),
+    expect: all(200),
+  },
+  {
+    // Auth.js's own endpoints: the session reads as null or as the caller.
+    route: 'GET /api/auth/[...nextauth]',
+    request: async () => ({ path: '/api/auth/session' }),
+    expect: all(200),
+  },
+  {
+    // The e-mail sign-in POST: a malformed address is refused by our guard before Auth.js.
+    route: 'POST /api/auth/[...nextauth]',
+    request: async () => ({ path: '/api/auth/signin/nodemailer', form: { email: 'not-an-address', csrfToken: 'x' } }),
+    expect: all(400),
+  },
+  {
+    // Visitors get { account: null }; the header asks this on every page.
+    route: 'GET /api/account',
+    request: async () => ({ path: '/api/account' }),
+    expect: all(200),
+  },
+  {
+    route: 'PATCH /api/account',
+    request: async () => ({ path: '/api/account', json: { units: 'imperial' } }),
+    expect: signedIn(401, 200),
+    check: async (cell, { allowed }) => {
+      if (cell.user) expectEqual((await access(cell.user)).units, allowed ? 'imperial' : 'metric', 'units');
+    },
+  },
+  {
+    route: 'POST /api/account/licence',
+    request: async () => ({ path: '/api/account/licence', json: { accept: true } }),
+    expect: readerOnly(401, 403, 200),
+    check: async (cell, { allowed }) => {
+      if (cell.user) expectEqual((await access(cell.user)).role, allowed ? 'contributor' : cell.who, 'role');
+    },
+  },
+  {
+    route: 'GET /api/admin/users',
+    request: async () => ({ path: '/api/admin/users?q=example' }),
+    expect: adminOnly(401, 403, 200),
+  },
+  {
+    route: 'PATCH /api/admin/users/[id]',
+    request: async (cell) => {
+      const target = await cell.makeUser({ role: 'contributor' });
+      targets.set(cell, target);
+      return { path: `/api/admin/users/${target.id}`, json: { role: 'editor' } };
+    },
+    expect: adminOnly(401, 403, 200),
+    check: async (cell, { allowed }) => expectEqual((await access(targets.get(cell)!)).role, allowed ? 'editor' : 'contributor', 'target role'),
+  },
+];
+
+export const ACTION_ROWS: ActionRow[] = [
+  {
+    // Sends a real link through the capture server for everyone (no role needed to sign in).
+    action: 'app/signin/actions.ts#requestSignInLink',
+    fields: async (cell) => ({ email: `matrix-${cell.who}-${Date.now()}@example.test` }),
+    expect: all('ok'),
+  },
+  {
+    // Demo mode is on in the test environment (TRIALBED_DEMO=1); the demo-off case is in auth-production.test.ts.
+    action: 'app/signin/actions.ts#signInAsDemo',
+    fields: async () => ({ role: 'reader' }),
+    expect: all('ok'),
+  },
+  {
+    action: 'app/signin/actions.ts#signOutUser',
+    fields: async () => ({}),
+    expect: all('ok'),
+  },
+  {
+    action: 'app/account/actions.ts#saveUnits',
+    fields: async () => ({ units: 'imperial' }),
+    expect: signedIn('unauthenticated', 'ok'),
+    check: async (cell, { allowed }) => {
+      if (cell.user) expectEqual((await access(cell.user)).units, allowed ? 'imperial' : 'metric', 'units');
+    },
+  },
+  {
+    action: 'app/account/actions.ts#acceptContributionLicence',
+    fields: async () => ({ accept: 'on' }),
+    expect: readerOnly('unauthenticated', 'forbidden', 'ok'),
+    check: async (cell, { allowed }) => {
+      if (cell.user) expectEqual((await access(cell.user)).role, allowed ? 'contributor' : cell.who, 'role');
+    },
+  },
+  {
+    action: 'app/admin/users/actions.ts#changeUserRole',
+    fields: async (cell) => {
+      const target = await cell.makeUser({ role: 'contributor' });
+      targets.set(cell, target);
+      return { userId: target.id, role: 'moderator' };
+    },
+    expect: adminOnly('unauthenticated', 'forbidden', 'ok'),
+    check: async (cell, { allowed }) => expectEqual((await access(targets.get(cell)!)).role, allowed ? 'moderator' : 'contributor', 'target role'),
+  },
+  {
+    action: 'app/admin/users/actions.ts#setUserDisabled',
+    fields: async (cell) => {
+      const target = await cell.makeUser({ role: 'reader' });
+      targets.set(cell, target);
+      return { userId: target.id, disabled: 'true' };
+    },
+    expect: adminOnly('unauthenticated', 'forbidden', 'ok'),
+    check: async (cell, { allowed }) => expectEqual((await access(targets.get(cell)!)).disabled, allowed, 'target disabled'),
+  },
+];
+
+/** Targets made by a row's request, for its check. */
+const targets = new WeakMap<Cell, User>();
+
+function expectEqual(actual: unknown, expected: unknown, what: string) {
+  if (actual !== expected) throw new Error(`${what}: expected ${String(expected)}, got ${String(actual)}`);
+}
