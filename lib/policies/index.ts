@@ -89,7 +89,7 @@ const RULES: Record<Action, (actor: Actor, resource: Resource) => boolean> = {
   'proposal.vote': (a, r) =>
     atLeast(a, 'contributor') &&
     !isOwner(a, r) &&
-    (!a!.createdAt || Date.now() - a!.createdAt.getTime() >= MIN_ACCOUNT_AGE_TO_VOTE_MS),
+    !isTooNewToVote(a),
   'proposal.decide': (a) => atLeast(a, 'moderator'),
   'proposal.claim': (a) => atLeast(a, 'editor'),
   'moderation.hide': (a) => atLeast(a, 'moderator'),
@@ -128,4 +128,9 @@ export function authorize(actor: Actor, action: Action, resource?: Resource): vo
 export function authorizeUser(actor: Actor, action: Action, resource?: Resource): asserts actor is NonNullable<Actor> {
   if (!actor) throw new UnauthenticatedError();
   authorize(actor, action, resource);
+}
+
+/** True when the account is too young to vote yet (the waiting time is MIN_ACCOUNT_AGE_TO_VOTE_MS). */
+export function isTooNewToVote(actor: Actor, now: number = Date.now()): boolean {
+  return !!actor?.createdAt && now - actor.createdAt.getTime() < MIN_ACCOUNT_AGE_TO_VOTE_MS;
 }

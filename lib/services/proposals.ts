@@ -12,7 +12,7 @@ import {
   Vote,
 } from '@/db/models';
 import { tallyVotes, type Tally } from '@/lib/consensus';
-import { ConflictError, InvalidInputError, NotFoundError } from '@/lib/errors';
+import { ConflictError, ForbiddenError, InvalidInputError, NotFoundError } from '@/lib/errors';
 import { authorizeUser, type Actor } from '@/lib/policies';
 import {
   DecisionSchema,
@@ -257,9 +257,17 @@ export async function resubmitProposal(actor: Actor, proposalId: number, raw: un
   const old = await Proposal.findByPk(proposalId, { include: [{ model: Trial, as: 'trials', attributes: ['id'] }] });
   if (!old) throw new NotFoundError('No such proposal.');
   authorizeUser(actor, 'proposal.create');
-  if (old.authorId !== actor.id) throw new InvalidInputError('Only the author can resubmit a proposal.', { _form: ['Only the author can resubmit.'] });
+  if (old.authorId !== actor.id) throw new ForbiddenError('Only the author can resubmit a proposal.');
+  if (old.status === 'approved') throw new ConflictError('This proposal was approved; open a new one instead.');
   const cited = ((old as unknown as { trials?: { id: number }[] }).trials ?? []).map((t) => t.id);
-  const revised = { feedstockId: old.feedstockId, settings: old.settings, rationale: old.rationale, trialIds: cited, ...(raw as object) };
+  // Only the parts an author may revise; the feedstock stays the same.
+  const changes = (raw && typeof raw === 'object' ? raw : {}) as Record<string, unknown>;
+  const revised = {
+    feedstockId: old.feedstockId,
+    settings: changes.settings ?? old.settings,
+    rationale: changes.rationale ?? old.rationale,
+    trialIds: changes.trialIds ?? cited,
+  };
   return createProposal(actor, revised);
 }
 

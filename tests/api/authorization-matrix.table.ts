@@ -1,4 +1,6 @@
-import type { User } from '@/db/models';
+import { sequelize } from '@/db';
+import { Proposal, PublishedVerdict, Vote, type User } from '@/db/models';
+import { buildFeedstock } from '../support/factories';
 import type { Role } from '@/lib/policies';
 
 /**
@@ -117,6 +119,77 @@ export const ROUTE_ROWS: RouteRow[] = [
     expect: adminOnly(401, 403, 200),
     check: async (cell, { allowed }) => expectEqual((await access(targets.get(cell)!)).role, allowed ? 'editor' : 'contributor', 'target role'),
   },
+
+  // --- Verdict proposals, votes and moderation (issue: proposals and voting).
+  {
+    route: 'POST /api/proposals',
+    request: async () => {
+      const f = await freshFeedstock();
+      return { path: '/api/proposals', json: { feedstockId: f.id, settings: [{ setting: 'bin', verdict: 'feed', ceilingKgM2: 3, cautions: [] }], rationale: 'Four consumed bin trials at 3 kg/m², no heating seen.' } };
+    },
+    expect: { anonymous: 401, reader: 403, contributor: 201, editor: 201, moderator: 201, admin: 201 },
+  },
+  {
+    route: 'GET /api/proposals/[id]',
+    request: async (cell) => ({ path: `/api/proposals/${(await openProposalFor(cell)).id}` }),
+    expect: all(200),
+  },
+  {
+    route: 'POST /api/proposals/[id]/votes',
+    request: async (cell) => {
+      // Votes need an account older than a day; age the caller's account.
+      if (cell.user) await sequelize.query('UPDATE users SET created_at = ? WHERE id = ?', { replacements: [new Date(Date.now() - 3 * 86_400_000), cell.user.id] });
+      return { path: `/api/proposals/${(await openProposalFor(cell)).id}/votes`, json: { agree: true, reason: 'Matches trial 12.' } };
+    },
+    expect: { anonymous: 401, reader: 403, contributor: 200, editor: 200, moderator: 200, admin: 200 },
+    check: async (cell, { allowed }) => {
+      const p = proposals.get(cell)!;
+      expectEqual(await Vote.count({ where: { proposalId: p.id } }), allowed ? 1 : 0, 'votes stored');
+    },
+  },
+  {
+    route: 'POST /api/proposals/[id]/decision',
+    request: async (cell) => ({ path: `/api/proposals/${(await openProposalFor(cell)).id}/decision`, json: { decision: 'approve', note: 'Trials support it.' } }),
+    expect: { anonymous: 401, reader: 403, contributor: 403, editor: 403, moderator: 200, admin: 200 },
+    check: async (cell, { allowed }) => {
+      const p = await Proposal.findByPk(proposals.get(cell)!.id);
+      expectEqual(p!.status, allowed ? 'approved' : 'open', 'proposal status');
+      expectEqual(await PublishedVerdict.count({ where: { feedstockId: p!.feedstockId } }), allowed ? 1 : 0, 'published verdicts');
+    },
+  },
+  {
+    route: 'POST /api/proposals/[id]/claim',
+    request: async (cell) => ({ path: `/api/proposals/${(await openProposalFor(cell)).id}/claim`, json: {} }),
+    expect: { anonymous: 401, reader: 403, contributor: 403, editor: 200, moderator: 200, admin: 200 },
+  },
+  {
+    route: 'POST /api/proposals/[id]/visibility',
+    request: async (cell) => ({ path: `/api/proposals/${(await openProposalFor(cell)).id}/visibility`, json: { hidden: true, reason: 'Abusive wording.' } }),
+    expect: { anonymous: 401, reader: 403, contributor: 403, editor: 403, moderator: 200, admin: 200 },
+    check: async (cell, { allowed }) => expectEqual(!!(await Proposal.findByPk(proposals.get(cell)!.id))!.hiddenAt, allowed, 'proposal hidden'),
+  },
+  {
+    route: 'POST /api/votes/[id]/visibility',
+    request: async (cell) => {
+      const p = await openProposalFor(cell);
+      const voter = await cell.makeUser({ role: 'contributor' });
+      const vote = await Vote.create({ proposalId: p.id, voterId: voter.id, agree: false, reason: 'rude words' });
+      votes.set(cell, vote);
+      return { path: `/api/votes/${vote.id}/visibility`, json: { hidden: true, reason: 'Abusive comment.' } };
+    },
+    expect: { anonymous: 401, reader: 403, contributor: 403, editor: 403, moderator: 200, admin: 200 },
+    check: async (cell, { allowed }) => expectEqual(!!(await Vote.findByPk(votes.get(cell)!.id))!.hiddenAt, allowed, 'vote hidden'),
+  },
+  {
+    // Only a proposal's own author resubmits it; here every signed-in caller is the author.
+    route: 'POST /api/proposals/[id]/resubmit',
+    request: async (cell) => {
+      const p = await openProposalFor(cell, cell.user ?? undefined);
+      await p.update({ status: 'rejected', decisionNote: 'Needs more trials.' });
+      return { path: `/api/proposals/${p.id}/resubmit`, json: {} };
+    },
+    expect: { anonymous: 401, reader: 403, contributor: 201, editor: 201, moderator: 201, admin: 201 },
+  },
 ];
 
 export const ACTION_ROWS: ActionRow[] = [
@@ -174,6 +247,31 @@ export const ACTION_ROWS: ActionRow[] = [
     check: async (cell, { allowed }) => expectEqual((await access(targets.get(cell)!)).disabled, allowed, 'target disabled'),
   },
 ];
+
+
+/** Proposals and votes made by a row's request, for its check. */
+const proposals = new WeakMap<Cell, Proposal>();
+const votes = new WeakMap<Cell, Vote>();
+
+/** A feedstock of its own for one cell, so decisions in different cells never conflict. */
+async function freshFeedstock() {
+  return buildFeedstock();
+}
+
+/** An open proposal on a fresh feedstock, by `author` (default: a new contributor). */
+async function openProposalFor(cell: Cell, author?: User): Promise<Proposal> {
+  const f = await freshFeedstock();
+  const by = author ?? (await cell.makeUser({ role: 'contributor' }));
+  const p = await Proposal.create({
+    feedstockId: f.id,
+    authorId: by.id,
+    baseVerdictVersion: f.verdictVersion,
+    settings: [{ setting: 'bin', verdict: 'feed', ceilingKgM2: 3, cautions: [] }],
+    rationale: 'Made by the authorization matrix.',
+  });
+  proposals.set(cell, p);
+  return p;
+}
 
 /** Targets made by a row's request, for its check. */
 const targets = new WeakMap<Cell, User>();
