@@ -3,6 +3,7 @@ import { Op, QueryTypes } from 'sequelize';
 import { sequelize } from '@/db';
 import {
   EvidenceAggregate,
+  VerdictHistory,
   EvidenceVerdict,
   Feedstock,
   FeedstockAlias,
@@ -239,6 +240,20 @@ export interface SettingSectionDTO {
   disagree: boolean;
   cautions: EvidenceCautionDTO[];
   survival: SurvivalCurveDTO[];
+  /** How each preparation tried in this setting fared (from the evidence groups). */
+  preparations: PreparationDTO[];
+}
+
+/** One preparation's evidence in one setting. */
+export interface PreparationDTO {
+  preparation: Preparation;
+  verdict: Verdict;
+  provisionalVerdict: Verdict | null;
+  settled: boolean;
+  trialCount: number;
+  finishedCount: number;
+  ceilingKgM2: number | null;
+  successShare: number | null;
 }
 
 /** One linked trial, as the page lists it (region only, nothing that places a person). */
@@ -346,8 +361,19 @@ export async function loadFeedstockPage(id: number): Promise<FeedstockPageDTO | 
         : null;
     const cautions: EvidenceCautionDTO[] = [];
     const survival: SurvivalCurveDTO[] = [];
+    const preparations: PreparationDTO[] = [];
     for (const row of groupRows) {
       const g = row.result as GroupAggregate;
+      preparations.push({
+        preparation: g.preparation,
+        verdict: g.verdict,
+        provisionalVerdict: g.provisionalVerdict,
+        settled: g.settled,
+        trialCount: g.counts.trials,
+        finishedCount: g.counts.finished,
+        ceilingKgM2: g.ceiling.kgM2,
+        successShare: g.success.proportion,
+      });
       for (const c of g.cautions) cautions.push({ event: c.event, preparation: g.preparation, text: c.text });
       const km = g.timeToConsumption;
       if (km.n > 0) {
@@ -378,6 +404,7 @@ export async function loadFeedstockPage(id: number): Promise<FeedstockPageDTO | 
       disagree: !!p && !!evidenceDto && p.verdict !== evidenceDto.verdict,
       cautions,
       survival,
+      preparations,
     });
   }
 
@@ -605,4 +632,80 @@ export async function listMixFeedstocks(): Promise<MixMaterialDTO[]> {
 export async function listFeedstockChoices(): Promise<{ id: number; slug: string; name: string }[]> {
   const rows = await Feedstock.findAll({ where: { mergedIntoId: null }, attributes: ['id', 'slug', 'name'], order: [['name', 'ASC']] });
   return rows.map((r) => ({ id: r.id, slug: r.slug, name: r.name }));
+}
+
+// ---------------------------------------------------------------- feed
+
+/** One entry of a feedstock's update feed. */
+export interface FeedEntryDTO {
+  id: string;
+  kind: 'verdict' | 'page-edit' | 'trial';
+  title: string;
+  summary: string;
+  path: string;
+  date: string;
+}
+
+const SETTING_FEED_WORDS: Record<Setting, string> = { bin: 'enclosed bins', 'flow-through': 'flow-through systems', bed: 'open beds' };
+const PREPARATION_FEED_WORDS: Record<Preparation, string> = {
+  raw: 'raw',
+  chopped: 'chopped',
+  shredded: 'shredded',
+  'frozen-thawed': 'frozen and thawed',
+  cooked: 'cooked',
+  soaked: 'soaked',
+  dried: 'dried',
+  'pre-composted': 'pre-composted',
+  aged: 'aged',
+};
+const VERDICT_FEED_WORDS: Record<Verdict, string> = {
+  feed: 'Feed freely',
+  limit: 'Small amounts only',
+  prepare: 'Prepare first',
+  avoid: 'Keep out',
+  unsettled: 'Not enough evidence',
+};
+
+/**
+ * The newest changes to a feedstock, newest first: published-verdict
+ * decisions, published page edits and newly logged trials. No names or
+ * places beyond the trial's region.
+ */
+export async function listFeedstockFeedEntries(id: number, limit = 30): Promise<{ name: string; slug: string; entries: FeedEntryDTO[] } | null> {
+  const f = await Feedstock.findByPk(id, { attributes: ['id', 'slug', 'name', 'mergedIntoId'] });
+  if (!f || f.mergedIntoId) return null;
+  const [history, revisions, trials] = await Promise.all([
+    VerdictHistory.findAll({ where: { feedstockId: id }, order: [['decidedAt', 'DESC'], ['id', 'DESC']], limit }),
+    FeedstockRevision.findAll({ where: { feedstockId: id, status: 'published' }, attributes: ['id', 'baseVersion', 'editSummary', 'reviewedAt', 'createdAt'], order: [['id', 'DESC']], limit }),
+    Trial.findAll({ where: { feedstockId: id }, attributes: ['id', 'setting', 'preparation', 'region', 'createdAt'], order: [['createdAt', 'DESC'], ['id', 'DESC']], limit }),
+  ]);
+  const entries: FeedEntryDTO[] = [
+    ...history.map((h) => ({
+      id: `verdict-${h.id}`,
+      kind: 'verdict' as const,
+      title: `${f.name} in ${SETTING_FEED_WORDS[h.setting]}: ${h.previousVerdict ? `${VERDICT_FEED_WORDS[h.previousVerdict]} → ` : ''}${VERDICT_FEED_WORDS[h.verdict]}`,
+      summary: `${h.previousVerdict ? 'The published verdict changed' : 'First published verdict'}${h.proposalId ? ` after proposal ${h.proposalId}` : ''}. ${h.note}`,
+      path: h.proposalId ? `/proposals/${h.proposalId}` : `/feedstocks/${f.slug}`,
+      date: h.decidedAt.toISOString(),
+    })),
+    ...revisions.map((r) => ({
+      id: `revision-${r.id}`,
+      kind: 'page-edit' as const,
+      title: `${f.name}: page text version ${r.baseVersion + 1}`,
+      summary: r.editSummary || 'The page text was edited.',
+      path: `/feedstocks/${f.slug}/history`,
+      date: (r.reviewedAt ?? r.createdAt).toISOString(),
+    })),
+    ...trials.map((t) => ({
+      id: `trial-${t.id}`,
+      kind: 'trial' as const,
+      title: `${f.name}: new trial in ${SETTING_FEED_WORDS[t.setting]}`,
+      summary: `A trial of ${PREPARATION_FEED_WORDS[t.preparation]} material was logged in ${t.region}.`,
+      path: `/trials/${t.id}`,
+      date: t.createdAt.toISOString(),
+    })),
+  ]
+    .sort((a, b) => b.date.localeCompare(a.date) || a.id.localeCompare(b.id))
+    .slice(0, limit);
+  return { name: f.name, slug: f.slug, entries };
 }

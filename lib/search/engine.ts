@@ -163,20 +163,22 @@ export class FeedstockSearchIndex {
     const pool = this.candidates(terms);
     if (pool.length === 0) return { terms, results: [], suggestions: [] };
     const found = new Fuse(pool, FUSE_OPTIONS).search(text, { limit: max * 3 });
-    const scored = found.map((r) => ({ hit: this.toHit(r, terms), raw: r.score ?? 1 })).sort((a, b) => compareHits(a.hit, b.hit));
+    const scored = found.map((r) => ({ ...this.toHit(r, terms), raw: r.score ?? 1 })).sort((a, b) => compareHits(a.hit, b.hit));
     const results = scored.filter((s) => s.hit.score <= ACCEPT_SCORE).slice(0, max).map((s) => s.hit);
     // Near misses are judged on fuse's own score: a badly typed word should still suggest its page.
-    const suggestions = results.length ? [] : scored.filter((s) => s.raw <= SUGGEST_SCORE).slice(0, 3).map((s) => s.hit);
+    // A near miss must share at least one (fuzzily) whole word with the query.
+    const suggestions = results.length ? [] : scored.filter((s) => s.raw <= SUGGEST_SCORE && s.covered > 0).slice(0, 3).map((s) => s.hit);
     return { terms, results, suggestions };
   }
 
-  private toHit(r: FuseResult<IndexRecord>, terms: string[]): SearchHit {
+  private toHit(r: FuseResult<IndexRecord>, terms: string[]): { hit: SearchHit; covered: number } {
     const d = this.docs[r.item.doc];
     let score = r.score ?? 1;
     // A query word the record lacks entirely costs more than fuse's idf weighting says:
     // "orange peel" must put Orange peel ahead of Banana peel even when "peel" is rarer.
     const words = new Set([r.item.name, ...r.item.aliases, r.item.family, r.item.category].join(' ').split(' '));
     const missing = terms.filter((t) => !fuzzyHas(words, t)).length;
+    const coveredTerms = terms.length - missing;
     score = Math.min(1, score + (0.5 * missing) / terms.length);
     // Name the alias when it explains the match better than the name does.
     let matchedAlias: string | null = null;
@@ -193,14 +195,17 @@ export class FeedstockSearchIndex {
       });
     }
     return {
-      slug: d.slug,
-      name: d.name,
-      category: d.category,
-      categoryLabel: d.categoryLabel,
-      summary: d.summary,
-      published: d.published,
-      matchedAlias,
-      score: Math.round(score * 1000) / 1000,
+      hit: {
+        slug: d.slug,
+        name: d.name,
+        category: d.category,
+        categoryLabel: d.categoryLabel,
+        summary: d.summary,
+        published: d.published,
+        matchedAlias,
+        score: Math.round(score * 1000) / 1000,
+      },
+      covered: coveredTerms,
     };
   }
 }

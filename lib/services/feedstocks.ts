@@ -20,6 +20,7 @@ import {
   FeedstockRenameSchema,
   FeedstockRequestSchema,
   RequestDecisionSchema,
+  RESERVED_SLUGS,
   slugify,
   type FeedstockCreateInput,
   type FeedstockMergeInput,
@@ -55,6 +56,7 @@ export async function createFeedstock(actor: Actor, raw: unknown): Promise<Feeds
   authorizeUser(actor, 'feedstock.create');
   const input: FeedstockCreateInput = FeedstockCreateSchema.parse(raw);
   const slug = input.slug ?? slugify(input.name);
+  if (RESERVED_SLUGS.includes(slug)) throw new InvalidInputError(undefined, { slug: ['That address is used by the site itself; choose another.'] });
   if (slug.length < 2) throw new InvalidInputError(undefined, { slug: ['Choose an address (like "orange-peel").'] });
   const aliases = [...new Set(input.aliases)];
   return sequelize.transaction(async (transaction) => {

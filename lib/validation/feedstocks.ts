@@ -71,6 +71,9 @@ export const RevertSchema = z.object({
 });
 export type RevertInput = z.infer<typeof RevertSchema>;
 
+/** Addresses under /feedstocks/ that are pages of their own. */
+export const RESERVED_SLUGS = ['new', 'request'];
+
 /** A URL slug: lower-case words joined by hyphens. */
 export const SlugSchema = z
   .string()
@@ -78,7 +81,8 @@ export const SlugSchema = z
   .toLowerCase()
   .min(2, 'The address needs at least 2 characters.')
   .max(120, 'Keep the address under 120 characters.')
-  .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Use lower-case letters, digits and single hyphens (like "orange-peel").');
+  .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Use lower-case letters, digits and single hyphens (like "orange-peel").')
+  .refine((s) => !RESERVED_SLUGS.includes(s), 'That address is used by the site itself; choose another.');
 
 /** Turns a name into a slug ("Orange peel (waxed)" → "orange-peel-waxed"). */
 export function slugify(name: string): string {
