@@ -8,7 +8,7 @@ export interface DiffPart {
 
 /** Line diff of two page texts (the `diff` package), as parts, with changed-line counts. Pure. */
 export function diffText(before: string, after: string): { parts: DiffPart[]; added: number; removed: number } {
-  const withNl = (s: string) => (s.endsWith('\n') ? s : `${s}\n`);
+  const withNl = (s: string) => (s === '' || s.endsWith('\n') ? s : `${s}\n`);
   const changes = diffLines(withNl(before), withNl(after));
   let added = 0;
   let removed = 0;

@@ -76,9 +76,9 @@ export function OutcomeChart({
   /** Shared x range across the page's charts, in kg/m². */
   domainKgM2: [number, number];
 }) {
-  const W = 640;
-  const rowH = 26;
-  const left = 118;
+  const W = 520;
+  const rowH = 28;
+  const left = 112;
   const right = 16;
   const top = 12;
   const plotH = rowH * ROWS.length;
@@ -98,13 +98,14 @@ export function OutcomeChart({
 
   return (
     <figure className="m-0 space-y-2">
-      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-labelledby={`${titleId}-t ${titleId}-d`} className="h-auto w-full max-w-3xl text-ink">
+      <div role="region" aria-label={title} tabIndex={0} className="overflow-x-auto">
+      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-labelledby={`${titleId}-t ${titleId}-d`} className="h-auto w-full min-w-[30rem] max-w-3xl text-ink">
         <title id={`${titleId}-t`}>{title}</title>
         <desc id={`${titleId}-d`}>{summary}</desc>
         {ROWS.map((r, i) => (
           <g key={r}>
             {i % 2 === 0 ? <rect x={left} y={top + i * rowH} width={W - left - right} height={rowH} className="fill-surface-sunken" /> : null}
-            <text x={left - 8} y={y(r) + 4} textAnchor="end" fontSize="13" className="fill-ink">
+            <text x={left - 8} y={y(r) + 4} textAnchor="end" fontSize="14" className="fill-ink">
               {ROW_LABELS[r]}
             </text>
           </g>
@@ -114,13 +115,13 @@ export function OutcomeChart({
           return (
             <g key={t}>
               <line x1={tx} x2={tx} y1={top} y2={top + plotH} className="stroke-line" />
-              <text x={tx} y={top + plotH + 16} textAnchor="middle" fontSize="12" className="fill-ink-muted">
+              <text x={tx} y={top + plotH + 16} textAnchor="middle" fontSize="13" className="fill-ink-muted">
                 {formatNumber(t)}
               </text>
             </g>
           );
         })}
-        <text x={left + (W - left - right) / 2} y={H - 6} textAnchor="middle" fontSize="13" className="fill-ink">
+        <text x={left + (W - left - right) / 2} y={H - 6} textAnchor="middle" fontSize="14" className="fill-ink">
           Surface load per application ({loadUnit(units)}, log scale)
         </text>
         {ceilingKgM2 !== null ? (
@@ -146,6 +147,7 @@ export function OutcomeChart({
           );
         })}
       </svg>
+      </div>
       <figcaption className="text-sm text-ink-muted">{summary}</figcaption>
     </figure>
   );
@@ -197,8 +199,8 @@ export function medianWords(c: Pick<SurvivalCurve, 'median' | 'medianLower' | 'm
  * marked with a tick.
  */
 export function SurvivalChart({ title, curves }: { title: string; curves: SurvivalCurve[] }) {
-  const W = 640;
-  const H = 260;
+  const W = 560;
+  const H = 270;
   const left = 52;
   const right = 150;
   const top = 14;
@@ -222,7 +224,7 @@ export function SurvivalChart({ title, curves }: { title: string; curves: Surviv
     labels.push(
       <g key={`l-${c.preparation}`}>
         <line x1={x(xMax) + 6} x2={x(xMax) + 30} y1={ly - 4} y2={ly - 4} stroke="currentColor" strokeWidth="2" strokeDasharray={DASHES[i % DASHES.length]} />
-        <text x={x(xMax) + 34} y={ly} fontSize="12" className="fill-ink">
+        <text x={x(xMax) + 34} y={ly} fontSize="13" className="fill-ink">
           {`${PREPARATION_LABELS[c.preparation] ?? c.preparation} (${c.n})`}
         </text>
       </g>,
@@ -231,26 +233,27 @@ export function SurvivalChart({ title, curves }: { title: string; curves: Surviv
 
   return (
     <figure className="m-0 space-y-2">
-      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-labelledby={`${titleId}-t ${titleId}-d`} className="h-auto w-full max-w-3xl text-ink">
+      <div role="region" aria-label={title} tabIndex={0} className="overflow-x-auto">
+      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-labelledby={`${titleId}-t ${titleId}-d`} className="h-auto w-full min-w-[30rem] max-w-3xl text-ink">
         <title id={`${titleId}-t`}>{title}</title>
         <desc id={`${titleId}-d`}>{summary}</desc>
         {[0, 0.25, 0.5, 0.75, 1].map((s) => (
           <g key={s}>
             <line x1={left} x2={x(xMax)} y1={y(s)} y2={y(s)} className="stroke-line" strokeDasharray={s === 0.5 ? '3 3' : undefined} />
-            <text x={left - 6} y={y(s) + 4} textAnchor="end" fontSize="12" className="fill-ink-muted">
+            <text x={left - 6} y={y(s) + 4} textAnchor="end" fontSize="13" className="fill-ink-muted">
               {`${Math.round(s * 100)}%`}
             </text>
           </g>
         ))}
         {Array.from({ length: xMax / step + 1 }, (_, k) => k * step).map((t) => (
-          <text key={t} x={x(t)} y={H - bottom + 16} textAnchor="middle" fontSize="12" className="fill-ink-muted">
+          <text key={t} x={x(t)} y={H - bottom + 16} textAnchor="middle" fontSize="13" className="fill-ink-muted">
             {t}
           </text>
         ))}
-        <text x={left + (x(xMax) - left) / 2} y={H - 6} textAnchor="middle" fontSize="13" className="fill-ink">
+        <text x={left + (x(xMax) - left) / 2} y={H - 6} textAnchor="middle" fontSize="14" className="fill-ink">
           Days since feeding
         </text>
-        <text x={14} y={top + (H - top - bottom) / 2} fontSize="13" className="fill-ink" transform={`rotate(-90 14 ${top + (H - top - bottom) / 2})`} textAnchor="middle">
+        <text x={14} y={top + (H - top - bottom) / 2} fontSize="14" className="fill-ink" transform={`rotate(-90 14 ${top + (H - top - bottom) / 2})`} textAnchor="middle">
           Trials with feed left
         </text>
         {curves.map((c, i) => (
@@ -265,6 +268,7 @@ export function SurvivalChart({ title, curves }: { title: string; curves: Surviv
         ))}
         {labels}
       </svg>
+      </div>
       <figcaption className="text-sm text-ink-muted">
         Steps down when a trial&rsquo;s feed was eaten; a short tick marks a trial still running or stopped early (censored, not dropped).
       </figcaption>

@@ -84,7 +84,7 @@ export function PreparationAdvice({ settings, units }: { settings: SettingSectio
         {rows.map((r) => (
           <tr key={`${r.setting}-${r.preparation}`}>
             <td>{SETTING_LABELS[r.setting]}</td>
-            <th scope="row" className="font-normal">
+            <th scope="row" className="border-t border-line font-normal">
               {PREPARATION_LABELS[r.preparation] ?? r.preparation}
             </th>
             <td>
@@ -135,7 +135,7 @@ export function TrialsTable({ trials, units, name }: { trials: TrialRowDTO[]; un
       <tbody>
         {trials.map((t) => (
           <tr key={t.id}>
-            <th scope="row" className="font-normal">
+            <th scope="row" className="border-t border-line font-normal">
               <Link href={`/trials/${t.id}`}>#{t.id}</Link>
             </th>
             <td>{SETTING_LABELS[t.setting]}</td>
@@ -215,7 +215,7 @@ export function SurvivalCharts({ settings }: { settings: SettingSectionDTO[] }) 
                   <tbody>
                     {c.table.map((r) => (
                       <tr key={r.time}>
-                        <th scope="row" className="font-normal">
+                        <th scope="row" className="border-t border-line font-normal">
                           {formatNumber(r.time, 3)}
                         </th>
                         <td>{r.atRisk}</td>

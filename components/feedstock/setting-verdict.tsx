@@ -100,18 +100,21 @@ export function EvidenceDerivation({ section, units }: { section: SettingSection
         ) : null}
       </p>
       <ul className="m-0 list-disc space-y-1 pl-5">
-        {e.sentences.map((s, i) => (
-          <li key={i}>{withReaderUnits(s, units)}</li>
-        ))}
+        {/* The certainty sentence is shown below, broken down by reason. */}
+        {e.sentences
+          .filter((s) => !(e.certaintyReasons.length && s.startsWith('Certainty ')))
+          .map((s, i) => (
+            <li key={i}>{withReaderUnits(s, units)}</li>
+          ))}
       </ul>
       {e.certaintyReasons.length ? (
         <div>
           <p className="m-0 font-semibold">Why the certainty is {e.certainty}</p>
-          <p className="m-0 text-ink-muted">{e.certaintyBase ? `It ${e.certaintyBase.replace(/^started/, 'started')}.` : null}</p>
+          {e.certaintyBase ? <p className="m-0 text-ink-muted">It {e.certaintyBase}.</p> : null}
           <ul className="m-0 list-disc pl-5">
             {e.certaintyReasons.map((r) => (
               <li key={r.domain}>
-                <span className="font-semibold capitalize">{r.domain}</span>: {r.reasons.join('; ')}
+                <span className="font-semibold">{r.domain.charAt(0).toUpperCase() + r.domain.slice(1)}</span>: {r.reasons.join('; ')}
               </li>
             ))}
           </ul>

@@ -12,9 +12,14 @@ import { loadFeedstockPage, type FeedstockPageDTO } from './feedstocks';
 /** Seconds a cached read may live even if no writer revalidates its tag (a safety net). */
 export const CACHE_SAFETY_SECONDS = 60;
 
-/** The feedstock page data, cached under `feedstock:<id>` and `feedstocks`. */
-export function getFeedstockPageCached(id: number): Promise<FeedstockPageDTO | null> {
-  return unstable_cache(() => loadFeedstockPage(id), ['feedstock-page', String(id)], {
+/**
+ * The feedstock page data, cached under `feedstock:<id>` and `feedstocks`.
+ * `stamp` (from the slug lookup: the row's creation and change times and
+ * versions) is part of the key, so a cache kept on disk from another database
+ * or an older row can never be served for this one.
+ */
+export function getFeedstockPageCached(id: number, stamp: string): Promise<FeedstockPageDTO | null> {
+  return unstable_cache(() => loadFeedstockPage(id), ['feedstock-page', String(id), stamp], {
     tags: [feedstockTag(id), FEEDSTOCKS_TAG],
     revalidate: CACHE_SAFETY_SECONDS,
   })();

@@ -159,16 +159,23 @@ export async function listFeedstockIndex(query: FeedstockIndexQuery): Promise<Fe
 // ---------------------------------------------------------------- slug resolution
 
 /** Where a slug leads: a feedstock, a permanent redirect, or nowhere. */
-export type SlugResolution = { kind: 'found'; id: number; slug: string } | { kind: 'redirect'; slug: string } | { kind: 'missing' };
+export type SlugResolution =
+  | { kind: 'found'; id: number; slug: string; /** Changes when the feedstock row changes (part of cache keys). */ stamp: string }
+  | { kind: 'redirect'; slug: string }
+  | { kind: 'missing' };
+
+function stampOf(f: Feedstock): string {
+  return `${f.createdAt.getTime()}.${f.updatedAt.getTime()}.${f.version}.${f.verdictVersion}`;
+}
 
 /**
  * Resolves a page slug. A merged feedstock, or an old slug left by a rename
  * or merge, leads to the current feedstock (following merges, at most 10 hops).
  */
 export async function resolveFeedstockSlug(slug: string): Promise<SlugResolution> {
-  const row = await Feedstock.findOne({ where: { slug }, attributes: ['id', 'slug', 'mergedIntoId'] });
+  const row = await Feedstock.findOne({ where: { slug }, attributes: ['id', 'slug', 'mergedIntoId', 'version', 'verdictVersion', 'createdAt', 'updatedAt'] });
   let targetId: number | null = null;
-  if (row && !row.mergedIntoId) return { kind: 'found', id: row.id, slug: row.slug };
+  if (row && !row.mergedIntoId) return { kind: 'found', id: row.id, slug: row.slug, stamp: stampOf(row) };
   if (row) targetId = row.mergedIntoId;
   else {
     const redirect = await FeedstockRedirect.findOne({ where: { oldSlug: slug }, attributes: ['feedstockId'] });
@@ -176,9 +183,9 @@ export async function resolveFeedstockSlug(slug: string): Promise<SlugResolution
     targetId = redirect.feedstockId;
   }
   for (let hops = 0; hops < 10 && targetId !== null; hops++) {
-    const target: Feedstock | null = await Feedstock.findByPk(targetId, { attributes: ['id', 'slug', 'mergedIntoId'] });
+    const target: Feedstock | null = await Feedstock.findByPk(targetId, { attributes: ['id', 'slug', 'mergedIntoId', 'version', 'verdictVersion', 'createdAt', 'updatedAt'] });
     if (!target) return { kind: 'missing' };
-    if (!target.mergedIntoId) return target.slug === slug ? { kind: 'found', id: target.id, slug } : { kind: 'redirect', slug: target.slug };
+    if (!target.mergedIntoId) return target.slug === slug ? { kind: 'found', id: target.id, slug, stamp: stampOf(target) } : { kind: 'redirect', slug: target.slug };
     targetId = target.mergedIntoId;
   }
   return { kind: 'missing' };

@@ -30,7 +30,7 @@ async function load(slug: string) {
   const resolved = await resolveFeedstockSlug(slug);
   if (resolved.kind === 'redirect') permanentRedirect(`/feedstocks/${resolved.slug}`);
   if (resolved.kind === 'missing') notFound();
-  const page = await getFeedstockPageCached(resolved.id);
+  const page = await getFeedstockPageCached(resolved.id, resolved.stamp);
   if (!page) notFound();
   return page;
 }

@@ -45,7 +45,7 @@ export default async function ReviewRequestsPage() {
         <tbody>
           {requests.map((r) => (
             <tr key={r.id}>
-              <th scope="row">{r.name}</th>
+              <th scope="row" className="border-t border-line">{r.name}</th>
               <td className="max-w-md">{r.note ?? <span className="text-ink-muted">—</span>}</td>
               <td className="whitespace-nowrap">{formatDate(r.createdAt)}</td>
               <td>{r.feedstockSlug ? <Link href={`/feedstocks/${r.feedstockSlug}`}>{STATUS[r.status]}</Link> : STATUS[r.status]}</td>

@@ -228,7 +228,7 @@ export default async function MixPage({ searchParams }: { searchParams: Promise<
             <tbody>
               {result.rows.map((r, i) => (
                 <tr key={i}>
-                  <th scope="row" className="font-normal">
+                  <th scope="row" className="border-t border-line font-normal">
                     {r.name}
                   </th>
                   <td>{formatNumber(r.wetMass, 3)}</td>

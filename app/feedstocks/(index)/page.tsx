@@ -179,7 +179,7 @@ export default async function FeedstocksPage({ searchParams }: { searchParams: S
           <tbody>
             {result.rows.map((r) => (
               <tr key={r.slug}>
-                <th scope="row" className="font-semibold">
+                <th scope="row" className="border-t border-line font-semibold">
                   <Link href={`/feedstocks/${r.slug}`}>{r.name}</Link>
                 </th>
                 <td>{CATEGORY_LABELS[r.category]}</td>
