@@ -8,6 +8,8 @@ import { SkipLink } from '@/components/layout/skip-link';
 import './globals.css';
 
 export const metadata: Metadata = {
+  // Absolute addresses for Open Graph and feeds; AUTH_URL is the public address (README, configuration).
+  metadataBase: new URL(process.env.AUTH_URL ?? 'http://localhost:3000'),
   title: {
     default: 'Trialbed — can my worms eat this?',
     template: '%s · Trialbed',

@@ -36,3 +36,6 @@ export const CERTAINTY_DESCRIPTIONS: Readonly<Record<CertaintyGrade, string>> = 
   low: 'The verdict may well change as trials come in.',
   'very low': 'A first indication only — treat it as a guess backed by a little evidence.',
 };
+
+
+export { CATEGORIES, CATEGORY_LABELS, type Category } from '@/lib/vocabulary';

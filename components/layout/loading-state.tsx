@@ -1,4 +1,10 @@
-export default function Loading() {
+/**
+ * The "loading" state shown while a server page renders. Used by segment
+ * loading.tsx files, not at the root: a root loading boundary makes every page
+ * stream, and a streamed page can no longer answer 308 or 404 (old feedstock
+ * addresses must redirect permanently).
+ */
+export function LoadingState() {
   return (
     <div role="status" className="flex items-center gap-3 py-10 text-lg text-ink-muted">
       <svg

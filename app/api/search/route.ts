@@ -1,0 +1,25 @@
+import { NextResponse, type NextRequest } from 'next/server';
+import { toErrorResponse } from '@/lib/errors';
+import { searchFeedstocks } from '@/lib/queries/search';
+import { SearchQuerySchema } from '@/lib/validation/feedstocks';
+
+/**
+ * GET /api/search?q=…&limit=… — feedstocks matching a question as people type
+ * it, with each one's published verdict per setting. 400 with field messages
+ * for a bad query.
+ */
+export async function GET(request: NextRequest) {
+  try {
+    const params = request.nextUrl.searchParams;
+    const input = SearchQuerySchema.parse({ q: params.get('q') ?? undefined, limit: params.get('limit') ?? undefined });
+    const outcome = await searchFeedstocks(input.q, input.limit);
+    return NextResponse.json(
+      { query: input.q, ...outcome },
+      // Results change only when feedstocks do; a short browser cache saves refetching while people retype.
+      { headers: { 'Cache-Control': 'public, max-age=30' } },
+    );
+  } catch (err) {
+    const { status, body } = toErrorResponse(err);
+    return NextResponse.json(body, { status, headers: { 'Cache-Control': 'no-store' } });
+  }
+}

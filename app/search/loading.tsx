@@ -1,0 +1,5 @@
+import { LoadingState } from '@/components/layout/loading-state';
+
+export default function Loading() {
+  return <LoadingState />;
+}
