@@ -1,7 +1,7 @@
 'use client';
 
 import { useActionState } from 'react';
-import { createFeedstockAction, mergeFeedstockAction, renameFeedstockAction } from '@/app/actions/feedstocks';
+import { createFeedstockAction, mergeFeedstockAction, renameFeedstockAction } from '@/app/feedstocks/actions';
 import { fieldError, FormMessage } from '@/components/forms/form-message';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
@@ -106,9 +106,10 @@ export function CreateFeedstockForm({
 
 /** Rename a feedstock or move it to a new address (editors); the old address keeps working. */
 export function RenameFeedstockForm({ feedstockId, name, slug }: { feedstockId: number; name: string; slug: string }) {
-  const [state, action, pending] = useActionState<ActionState, FormData>(renameFeedstockAction.bind(null, feedstockId), { ok: false });
+  const [state, action, pending] = useActionState<ActionState, FormData>(renameFeedstockAction, { ok: false });
   return (
     <form action={action} className="space-y-4" noValidate aria-labelledby="rename-heading">
+      <input type="hidden" name="feedstockId" value={feedstockId} />
       <h2 id="rename-heading" className="text-xl">
         Rename or move
       </h2>
@@ -124,9 +125,10 @@ export function RenameFeedstockForm({ feedstockId, name, slug }: { feedstockId: 
 
 /** Merge this feedstock into another (editors). */
 export function MergeFeedstockForm({ feedstockId, name, choices }: { feedstockId: number; name: string; choices: { value: string; label: string }[] }) {
-  const [state, action, pending] = useActionState<ActionState, FormData>(mergeFeedstockAction.bind(null, feedstockId), { ok: false });
+  const [state, action, pending] = useActionState<ActionState, FormData>(mergeFeedstockAction, { ok: false });
   return (
     <form action={action} className="space-y-4" noValidate aria-labelledby="merge-heading">
+      <input type="hidden" name="sourceId" value={feedstockId} />
       <h2 id="merge-heading" className="text-xl">
         Merge into another feedstock
       </h2>

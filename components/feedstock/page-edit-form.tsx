@@ -1,7 +1,7 @@
 'use client';
 
 import { useActionState, useDeferredValue, useState } from 'react';
-import { submitPageEditAction, type EditFormState } from '@/app/actions/feedstocks';
+import { submitPageEditAction, type EditFormState } from '@/app/feedstocks/actions';
 import { fieldError, FormMessage } from '@/components/forms/form-message';
 import { PageText } from '@/components/markdown/page-text';
 import { Button } from '@/components/ui/button';
@@ -24,12 +24,13 @@ export type PageEditFormProps = {
 export function PageEditForm({ feedstockId, initialText, baseVersion, mode }: PageEditFormProps) {
   const [text, setText] = useState(initialText);
   const preview = useDeferredValue(text);
-  const [state, action, pending] = useActionState<EditFormState, FormData>(submitPageEditAction.bind(null, feedstockId), { ok: false });
+  const [state, action, pending] = useActionState<EditFormState, FormData>(submitPageEditAction, { ok: false });
   const bodyError = fieldError(state, 'body');
   const done = state.ok && state.status === 'pending';
 
   return (
     <form action={action} className="space-y-4" noValidate>
+      <input type="hidden" name="feedstockId" value={feedstockId} />
       <input type="hidden" name="baseVersion" value={baseVersion} />
       <FormMessage state={state} />
       {!state.ok && state.message && /changed while you were editing/.test(state.message) ? (

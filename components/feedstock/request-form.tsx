@@ -1,7 +1,7 @@
 'use client';
 
 import { useActionState } from 'react';
-import { requestFeedstockAction, type RequestFormState } from '@/app/actions/feedstocks';
+import { requestFeedstockAction, type RequestFormState } from '@/app/feedstocks/actions';
 import { fieldError, FormMessage } from '@/components/forms/form-message';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';

@@ -1,19 +1,20 @@
 'use client';
 
 import { useActionState } from 'react';
-import { decideRequestAction, reviewEditAction } from '@/app/actions/feedstocks';
+import { decideRequestAction, reviewEditAction } from '@/app/feedstocks/actions';
 import { fieldError, FormMessage } from '@/components/forms/form-message';
 import { Button } from '@/components/ui/button';
 import type { ActionState } from '@/lib/errors';
 
 /** Approve or reject a suggested edit; a rejection needs a note for the author. */
 export function ReviewEditForm({ revisionId, stale }: { revisionId: number; stale: boolean }) {
-  const [state, action, pending] = useActionState<ActionState, FormData>(reviewEditAction.bind(null, revisionId), { ok: false });
+  const [state, action, pending] = useActionState<ActionState, FormData>(reviewEditAction, { ok: false });
   const noteId = `review-note-${revisionId}`;
   const noteError = fieldError(state, 'note');
   if (state.ok) return <FormMessage state={state} />;
   return (
     <form action={action} className="space-y-3">
+      <input type="hidden" name="revisionId" value={revisionId} />
       <FormMessage state={state} />
       <div className="flex flex-col gap-1">
         <label htmlFor={noteId} className="font-semibold">

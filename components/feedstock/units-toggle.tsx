@@ -1,7 +1,8 @@
 'use client';
 
-import { useOptimistic, useTransition } from 'react';
-import { setUnitsAction } from '@/app/actions/preferences';
+import { useActionState, useOptimistic, useTransition } from 'react';
+import { setUnitsAction } from '@/app/preferences/actions';
+import type { ActionState } from '@/lib/errors';
 import type { Units } from '@/lib/format';
 import { cx } from '@/components/ui/class-names';
 
@@ -14,9 +15,10 @@ const OPTIONS: { value: Units; label: string }[] = [
 export function UnitsToggle({ units }: { units: Units }) {
   const [shown, setShown] = useOptimistic(units);
   const [, start] = useTransition();
+  const [, formAction] = useActionState<ActionState, FormData>(setUnitsAction, { ok: false });
   return (
     <form
-      action={setUnitsAction}
+      action={formAction}
       onSubmit={(e) => {
         const submitter = (e.nativeEvent as SubmitEvent).submitter as HTMLButtonElement | null;
         const next = submitter?.value as Units | undefined;
@@ -26,7 +28,7 @@ export function UnitsToggle({ units }: { units: Units }) {
         data.set('units', next);
         start(async () => {
           setShown(next);
-          await setUnitsAction(data);
+          await setUnitsAction({ ok: false }, data);
         });
       }}
       className="inline-flex items-center gap-2"

@@ -268,3 +268,15 @@ export async function getProposeContext(slug: string) {
   };
 }
 export type ProposeContext = NonNullable<Awaited<ReturnType<typeof getProposeContext>>>;
+
+/** Open (visible) proposals of a feedstock with their tallies, oldest first. */
+export async function listOpenProposals(feedstockId: number) {
+  const rows = await Proposal.findAll({ where: { feedstockId, status: 'open', hiddenAt: null }, order: [['createdAt', 'ASC']] });
+  if (!rows.length) return [];
+  const counts = await sequelize.query<{ proposal_id: number; agree: number; n: number }>(
+    'SELECT proposal_id, SUM(agree) AS agree, COUNT(*) AS n FROM votes WHERE hidden_at IS NULL AND proposal_id IN (:ids) GROUP BY proposal_id',
+    { replacements: { ids: rows.map((r) => r.id) }, type: QueryTypes.SELECT },
+  );
+  const byId = new Map(counts.map((c) => [Number(c.proposal_id), tallyVotes(Number(c.agree), Number(c.n) - Number(c.agree))]));
+  return rows.map((p) => ({ id: p.id, settings: p.settings, createdAt: p.createdAt.toISOString(), tally: byId.get(p.id) ?? tallyVotes(0, 0) }));
+}

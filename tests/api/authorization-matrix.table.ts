@@ -1,5 +1,5 @@
 import { sequelize } from '@/db';
-import { Proposal, PublishedVerdict, Vote, type User } from '@/db/models';
+import { Feedstock, FeedstockRequest, FeedstockRevision, Proposal, PublishedVerdict, Vote, type User } from '@/db/models';
 import { buildFeedstock } from '../support/factories';
 import type { Role } from '@/lib/policies';
 
@@ -190,6 +190,23 @@ export const ROUTE_ROWS: RouteRow[] = [
     },
     expect: { anonymous: 401, reader: 403, contributor: 201, editor: 201, moderator: 201, admin: 201 },
   },
+
+  // --- Feedstock wiki (issue: wiki, search, guides).
+  {
+    route: 'GET /api/ping',
+    request: async () => ({ path: '/api/ping' }),
+    expect: all(200),
+  },
+  {
+    route: 'GET /api/search',
+    request: async () => ({ path: '/api/search?q=can%20worms%20eat%20banana%20peels' }),
+    expect: all(200),
+  },
+  {
+    route: 'GET /feedstocks/[slug]/feed.xml',
+    request: async () => ({ path: `/feedstocks/${(await freshFeedstock()).slug}/feed.xml` }),
+    expect: all(200),
+  },
 ];
 
 export const ACTION_ROWS: ActionRow[] = [
@@ -246,8 +263,102 @@ export const ACTION_ROWS: ActionRow[] = [
     expect: adminOnly('unauthenticated', 'forbidden', 'ok'),
     check: async (cell, { allowed }) => expectEqual((await access(targets.get(cell)!)).disabled, allowed, 'target disabled'),
   },
+  // --- Feedstock wiki actions: contributors suggest, editors publish and manage.
+  {
+    action: 'app/feedstocks/actions.ts#submitPageEditAction',
+    fields: async (cell) => {
+      const f = await freshFeedstock();
+      wikiFeedstocks.set(cell, f);
+      return { feedstockId: String(f.id), baseVersion: String(f.version), body: `New text by ${cell.who}.`, editSummary: 'matrix' };
+    },
+    // Editors publish and are sent to the page (a redirect counts as ok); contributors' edits wait (ok).
+    expect: { anonymous: 'unauthenticated', reader: 'forbidden', contributor: 'ok', editor: 'ok', moderator: 'ok', admin: 'ok' },
+    check: async (cell, { allowed }) => {
+      const f = wikiFeedstocks.get(cell)!;
+      expectEqual(await FeedstockRevision.count({ where: { feedstockId: f.id } }), allowed ? 1 : 0, 'revisions stored');
+    },
+  },
+  {
+    action: 'app/feedstocks/actions.ts#reviewEditAction',
+    fields: async (cell) => {
+      const f = await freshFeedstock();
+      const author = await cell.makeUser({ role: 'contributor' });
+      const r = await FeedstockRevision.create({ feedstockId: f.id, authorId: author.id, body: 'Suggested text.', status: 'pending', baseVersion: f.version });
+      revisions.set(cell, r);
+      return { revisionId: String(r.id), decision: 'approve', note: '' };
+    },
+    expect: { anonymous: 'unauthenticated', reader: 'forbidden', contributor: 'forbidden', editor: 'ok', moderator: 'ok', admin: 'ok' },
+    check: async (cell, { allowed }) => expectEqual((await FeedstockRevision.findByPk(revisions.get(cell)!.id))!.status, allowed ? 'published' : 'pending', 'revision status'),
+  },
+  {
+    action: 'app/feedstocks/actions.ts#revertAction',
+    fields: async (cell) => {
+      const f = await freshFeedstock();
+      const first = await FeedstockRevision.create({ feedstockId: f.id, authorId: null, body: 'Old text.', status: 'published', baseVersion: 0 });
+      await f.update({ pageText: 'Newer text.', version: 2 });
+      wikiFeedstocks.set(cell, f);
+      return { feedstockId: String(f.id), revisionId: String(first.id), baseVersion: '2' };
+    },
+    expect: { anonymous: 'unauthenticated', reader: 'forbidden', contributor: 'forbidden', editor: 'ok', moderator: 'ok', admin: 'ok' },
+    check: async (cell, { allowed }) => expectEqual((await Feedstock.findByPk(wikiFeedstocks.get(cell)!.id))!.pageText, allowed ? 'Old text.' : 'Newer text.', 'page text'),
+  },
+  {
+    // Anyone may ask for a feedstock the site does not have.
+    action: 'app/feedstocks/actions.ts#requestFeedstockAction',
+    fields: async (cell) => ({ name: `Matrix request ${cell.who} ${Date.now()}`, note: '' }),
+    expect: all('ok'),
+  },
+  {
+    action: 'app/feedstocks/actions.ts#decideRequestAction',
+    fields: async (cell) => {
+      const r = await FeedstockRequest.create({ name: `Matrix decide ${cell.who} ${Date.now()}`, note: null, requesterId: null });
+      requests.set(cell, r);
+      return { requestId: String(r.id), status: 'declined' };
+    },
+    expect: { anonymous: 'unauthenticated', reader: 'forbidden', contributor: 'forbidden', editor: 'ok', moderator: 'ok', admin: 'ok' },
+    check: async (cell, { allowed }) => expectEqual((await FeedstockRequest.findByPk(requests.get(cell)!.id))!.status, allowed ? 'declined' : 'open', 'request status'),
+  },
+  {
+    action: 'app/feedstocks/actions.ts#createFeedstockAction',
+    fields: async (cell) => ({ name: `Matrix feedstock ${cell.who} ${Date.now()}`, category: 'other', family: '', summary: '', pageText: '' }),
+    expect: { anonymous: 'unauthenticated', reader: 'forbidden', contributor: 'forbidden', editor: 'ok', moderator: 'ok', admin: 'ok' },
+  },
+  {
+    action: 'app/feedstocks/actions.ts#renameFeedstockAction',
+    fields: async (cell) => {
+      const f = await freshFeedstock();
+      wikiFeedstocks.set(cell, f);
+      return { feedstockId: String(f.id), name: `${f.name} renamed`, slug: `${f.slug}-renamed` };
+    },
+    expect: { anonymous: 'unauthenticated', reader: 'forbidden', contributor: 'forbidden', editor: 'ok', moderator: 'ok', admin: 'ok' },
+    check: async (cell, { allowed }) => {
+      const f = wikiFeedstocks.get(cell)!;
+      expectEqual((await Feedstock.findByPk(f.id))!.slug, allowed ? `${f.slug}-renamed` : f.slug, 'slug');
+    },
+  },
+  {
+    action: 'app/feedstocks/actions.ts#mergeFeedstockAction',
+    fields: async (cell) => {
+      const source = await freshFeedstock();
+      const target = await freshFeedstock();
+      wikiFeedstocks.set(cell, source);
+      return { sourceId: String(source.id), targetId: String(target.id), note: 'duplicate' };
+    },
+    expect: { anonymous: 'unauthenticated', reader: 'forbidden', contributor: 'forbidden', editor: 'ok', moderator: 'ok', admin: 'ok' },
+    check: async (cell, { allowed }) => expectEqual((await Feedstock.findByPk(wikiFeedstocks.get(cell)!.id))!.mergedIntoId !== null, allowed, 'merged'),
+  },
+  {
+    // A display preference in a cookie; anyone may set it.
+    action: 'app/preferences/actions.ts#setUnitsAction',
+    fields: async () => ({ units: 'imperial' }),
+    expect: all('ok'),
+  },
 ];
 
+/** Wiki rows' own feedstocks, revisions and requests, for their checks. */
+const wikiFeedstocks = new WeakMap<Cell, Feedstock>();
+const revisions = new WeakMap<Cell, FeedstockRevision>();
+const requests = new WeakMap<Cell, FeedstockRequest>();
 
 /** Proposals and votes made by a row's request, for its check. */
 const proposals = new WeakMap<Cell, Proposal>();

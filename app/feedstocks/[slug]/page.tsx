@@ -16,6 +16,8 @@ import {
 import { UnitsToggle } from '@/components/feedstock/units-toggle';
 import { PageText } from '@/components/markdown/page-text';
 import { getActor } from '@/lib/auth/actor';
+import { VerdictHistorySection } from '@/components/proposal/verdict-history';
+import { listOpenProposals, listVerdictHistory } from '@/lib/queries/proposals';
 import { formatDate, formatNumber } from '@/lib/format';
 import { can } from '@/lib/policies';
 import { getUnits } from '@/lib/preferences';
@@ -59,6 +61,8 @@ export default async function FeedstockPage({ params }: Props) {
   const [page, units, actor] = await Promise.all([load(slug), getUnits(), getActor()]);
   const canEdit = can(actor, 'feedstock.edit');
   const canSuggest = can(actor, 'feedstock.suggest-edit');
+  // Proposals and verdict history change with every vote and decision: read them fresh.
+  const [verdictHistory, openProposals] = await Promise.all([listVerdictHistory(page.id), listOpenProposals(page.id)]);
   const withVerdict = page.settings.filter((s) => s.published || s.evidence);
   const disagreements = page.settings.filter((s) => s.disagree);
 
@@ -123,6 +127,8 @@ export default async function FeedstockPage({ params }: Props) {
           Verdicts change only when a moderator decides a proposal. <Link href="/guides/reading-a-verdict">How to read a verdict</Link>.
         </p>
       </section>
+
+      <VerdictHistorySection slug={page.slug} history={verdictHistory} open={openProposals} canPropose={can(actor, 'proposal.create')} />
 
       <HandlingCautions codes={page.handlingCautions} />
 

@@ -27,7 +27,7 @@ function fields(formData: FormData): Record<string, FormDataEntryValue | FormDat
   return out;
 }
 
-/** A bound id, checked (bound arguments come back from the browser as sent). */
+/** An id from a hidden form field, checked (form fields come back from the browser as sent). */
 function idOf(x: unknown): number {
   const n = Number(x);
   if (!Number.isInteger(n) || n <= 0) throw new NotFoundError();
@@ -44,10 +44,10 @@ function touched(...ids: number[]) {
 export type EditFormState = ActionState & { status?: 'published' | 'pending'; version?: number };
 
 /** Saves a page-text edit (editors publish; contributors' edits wait for review). */
-export async function submitPageEditAction(feedstockId: number, _prev: EditFormState, formData: FormData): Promise<EditFormState> {
+export async function submitPageEditAction(_prev: EditFormState, formData: FormData): Promise<EditFormState> {
   let slug: string;
   try {
-    const r = await submitPageEdit(await getActor(), idOf(feedstockId), fields(formData));
+    const r = await submitPageEdit(await getActor(), idOf(formData.get('feedstockId')), fields(formData));
     if (r.status === 'pending') return { ok: true, status: 'pending', version: r.version, message: 'Thanks: your edit is waiting for an editor to review it.' };
     touched(r.feedstockId);
     slug = r.slug;
@@ -58,9 +58,9 @@ export async function submitPageEditAction(feedstockId: number, _prev: EditFormS
 }
 
 /** An editor approves or rejects a suggested edit. */
-export async function reviewEditAction(revisionId: number, _prev: ActionState, formData: FormData): Promise<ActionState> {
+export async function reviewEditAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   try {
-    const r = await reviewPageEdit(await getActor(), idOf(revisionId), fields(formData));
+    const r = await reviewPageEdit(await getActor(), idOf(formData.get('revisionId')), fields(formData));
     if (r.status === 'published') touched(r.feedstockId);
     return { ok: true, message: r.status === 'published' ? `Published as version ${r.version}.` : 'Rejected; the author has been told why.' };
   } catch (err) {
@@ -69,9 +69,9 @@ export async function reviewEditAction(revisionId: number, _prev: ActionState, f
 }
 
 /** An editor reverts the page text to an earlier published revision. */
-export async function revertAction(feedstockId: number, _prev: ActionState, formData: FormData): Promise<ActionState> {
+export async function revertAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   try {
-    const r = await revertPageText(await getActor(), idOf(feedstockId), fields(formData));
+    const r = await revertPageText(await getActor(), idOf(formData.get('feedstockId')), fields(formData));
     touched(r.feedstockId);
     return { ok: true, message: `Reverted: the old text is now version ${r.version}.` };
   } catch (err) {
@@ -116,10 +116,10 @@ export async function createFeedstockAction(_prev: ActionState, formData: FormDa
 }
 
 /** An editor renames a feedstock or moves it to a new address; goes to the new address. */
-export async function renameFeedstockAction(feedstockId: number, _prev: ActionState, formData: FormData): Promise<ActionState> {
+export async function renameFeedstockAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   let slug: string;
   try {
-    const r = await renameFeedstock(await getActor(), idOf(feedstockId), fields(formData));
+    const r = await renameFeedstock(await getActor(), idOf(formData.get('feedstockId')), fields(formData));
     touched(r.id);
     slug = r.slug;
   } catch (err) {
@@ -129,10 +129,10 @@ export async function renameFeedstockAction(feedstockId: number, _prev: ActionSt
 }
 
 /** An editor merges this feedstock into another; goes to the target. */
-export async function mergeFeedstockAction(sourceId: number, _prev: ActionState, formData: FormData): Promise<ActionState> {
+export async function mergeFeedstockAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   let slug: string;
   try {
-    const r = await mergeFeedstocks(await getActor(), { ...fields(formData), sourceId: idOf(sourceId) });
+    const r = await mergeFeedstocks(await getActor(), { ...fields(formData), sourceId: idOf(formData.get('sourceId')) });
     touched(r.source.id, r.target.id);
     slug = r.target.slug;
   } catch (err) {
