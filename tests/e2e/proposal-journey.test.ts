@@ -67,7 +67,7 @@ describe('proposal journey (browser)', () => {
     const a = await signedInPage(author, 375);
     await a.page.goto(`${app.url}/feedstocks/${feedstock.slug}/propose`);
     await a.page.getByLabel('Propose a verdict for enclosed bin').check();
-    await a.page.getByLabel('Verdict', { exact: true }).selectOption('feed');
+    await a.page.getByLabel(/^Verdict/).selectOption('feed');
     await a.page.getByLabel(/Dose ceiling/).fill('3');
     await a.page.getByLabel('Rationale').fill('Both chopped bin trials at 3 kg/m² were eaten within two weeks with no heating.');
     await a.page.screenshot({ path: path.join(ARTIFACTS, 'propose-375.png'), fullPage: true });

@@ -29,11 +29,18 @@ export function loadBuiltActions(): Map<string, BuiltAction> {
   for (const [id, entry] of Object.entries(manifest.node)) {
     if (!entry.filename || !entry.exportedName) continue;
     // A page without dynamic segments that bundles the action, e.g. app/account/page → /account.
-    const worker = Object.keys(entry.workers)
-      .filter((w) => w.endsWith('/page') && !w.includes('['))
-      .sort((a, b) => a.length - b.length)[0];
+    // Prefer a static page; an action used only on dynamic pages is called
+    // through one of them with a demo feedstock's slug (or id 1) filled in.
+    const pages = Object.keys(entry.workers).filter((w) => w.endsWith('/page'));
+    const worker = pages.filter((w) => !w.includes('[')).sort((a, b) => a.length - b.length)[0] ?? pages.sort((a, b) => a.length - b.length)[0];
     if (!worker) continue;
-    const pagePath = worker.replace(/^app/, '').replace(/\/page$/, '').replace(/\/\([^)]+\)/g, '') || '/';
+    const pagePath =
+      worker
+        .replace(/^app/, '')
+        .replace(/\/page$/, '')
+        .replace(/\/\([^)]+\)/g, '')
+        .replace(/\[slug\]/g, 'banana-peel')
+        .replace(/\[[^\]]+\]/g, '1') || '/';
     out.set(`${entry.filename}#${entry.exportedName}`, { id, file: entry.filename, name: entry.exportedName, pagePath });
   }
   return out;
