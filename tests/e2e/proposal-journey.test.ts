@@ -106,6 +106,8 @@ describe('proposal journey (browser)', () => {
     const history = m.page.locator('#verdict-history');
     await history.getByText('Two consistent trials and three agreeing votes.').waitFor();
     expect(await history.getByText(/Feed freely/).count()).toBeGreaterThan(0);
+    // The history names the verdict it replaced.
+    expect(await history.getByText(/Small amounts only/).count()).toBeGreaterThan(0);
     await m.page.screenshot({ path: path.join(ARTIFACTS, 'feedstock-after-approval-1280.png'), fullPage: true });
     const published = await PublishedVerdict.findOne({ where: { feedstockId: feedstock.id, setting: 'bin' } });
     expect(published!.verdict).toBe('feed');
