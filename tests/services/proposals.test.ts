@@ -116,6 +116,7 @@ describe('verdict proposals', () => {
     const history = await VerdictHistory.findAll({ where: { feedstockId: f.id } });
     expect(history).toHaveLength(1);
     expect(published[0].proposalId).toBe(history[0].proposalId);
+    expect(history[0].previousVerdict).toBe('limit');
     const refreshed = await Feedstock.findByPk(f.id);
     expect(refreshed!.verdictVersion).toBe(f.verdictVersion + 1);
     const statuses = (await Proposal.findAll({ where: { feedstockId: f.id }, order: [['id', 'ASC']] })).map((p) => p.status).sort();
