@@ -1,5 +1,4 @@
 import http from 'node:http';
-import path from 'node:path';
 import next from 'next';
 
 /**
