@@ -4,9 +4,7 @@ import { toErrorResponse } from '@/lib/errors';
 /** A JSON error response for any thrown error (lib/errors.ts decides status and body). */
 export function errorResponse(err: unknown): NextResponse {
   const { status, body } = toErrorResponse(err);
-  const headers: Record<string, string> = { 'Cache-Control': 'no-store' };
-  if (status === 401) headers['WWW-Authenticate'] = 'Session realm="Trialbed"';
-  return NextResponse.json(body, { status, headers });
+  return NextResponse.json(body, { status, headers: { 'Cache-Control': 'no-store' } });
 }
 
 /** Parses a positive integer route parameter; null when it is not one. */
