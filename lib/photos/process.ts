@@ -3,10 +3,9 @@ import sharp from 'sharp';
 import { InvalidInputError, PayloadTooLargeError, UnsupportedMediaTypeError } from '@/lib/errors';
 import { IMAGE_TYPES, type ImageFormat } from '@/lib/storage/keys';
 
-/** Largest upload accepted, in bytes (10 MB). */
-export const PHOTO_MAX_BYTES = 10 * 1024 * 1024;
-/** Largest image accepted, in pixels (40 megapixels): a guard against decompression bombs. */
-export const PHOTO_MAX_PIXELS = 40_000_000;
+import { PHOTO_MAX_BYTES, PHOTO_MAX_PIXELS } from './limits';
+
+export { PHOTO_MAX_BYTES, PHOTO_MAX_PIXELS };
 /** Stored photos are scaled down to fit this many pixels on the long edge. */
 export const PHOTO_MAX_EDGE = 2560;
 /** Thumbnails fit this many pixels on the long edge (WebP). */

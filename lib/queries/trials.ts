@@ -373,7 +373,7 @@ export async function listPairableTrials(ownerId: string, exceptTrialId: number 
 export async function getTrialForEdit(
   id: number,
   actor: Actor,
-): Promise<{ id: number; feedstock: FeedstockChoice; version: number; values: Record<string, string> } | null> {
+): Promise<{ id: number; feedstock: FeedstockChoice; version: number; values: Record<string, string>; pairable: PairableTrial[] } | null> {
   const trial = await Trial.findByPk(id, { include: [{ model: Feedstock, as: 'feedstock', attributes: ['id', 'slug', 'name', 'bulkDensityKgM3'] }] });
   if (!trial || !can(actor, 'trial.update', { ownerId: trial.ownerId })) return null;
   const f = (trial as Trial & { feedstock: Feedstock }).feedstock;
@@ -382,6 +382,8 @@ export async function getTrialForEdit(
     id: trial.id,
     feedstock: { id: f.id, slug: f.slug, name: f.name, acceptsVolume: !!f.bulkDensityKgM3 },
     version: trial.version,
+    // The owner's trials (not the editor's: a moderator may edit someone else's trial).
+    pairable: (await listPairableTrials(trial.ownerId, trial.id)).filter((p) => p.feedstockId === f.id),
     values: {
       setting: trial.setting,
       preparation: trial.preparation,
