@@ -49,7 +49,7 @@ export default async function TrialsPage({ searchParams }: { searchParams: Promi
         <LinkButton href="/trials/new">Log a trial</LinkButton>
       </header>
 
-      <form method="get" action="/trials" className="grid gap-3 rounded-lg border border-line bg-surface-raised p-4 sm:grid-cols-2 lg:grid-cols-[repeat(4,minmax(0,1fr))_auto]" aria-label="Filter trials">
+      <form method="get" action="/trials" className="grid grid-cols-2 gap-3 rounded-lg border border-line bg-surface-raised p-4 lg:grid-cols-[repeat(4,minmax(0,1fr))_auto]" aria-label="Filter trials">
         <div className="flex flex-col gap-1">
           <label htmlFor="filter-feedstock" className="font-semibold">
             Feedstock
@@ -102,7 +102,7 @@ export default async function TrialsPage({ searchParams }: { searchParams: Promi
             ))}
           </select>
         </div>
-        <div className="flex items-end gap-2">
+        <div className="col-span-2 flex items-end gap-2 lg:col-span-1">
           <button type="submit" className={buttonClasses('primary')}>
             Show
           </button>

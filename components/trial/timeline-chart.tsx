@@ -1,4 +1,4 @@
-import { ACTIVITY_LABELS, formatDay, type WormActivity } from './vocabulary';
+import { ACTIVITY_LABELS, ACTIVITY_LEVELS, formatDay, type WormActivity } from './vocabulary';
 
 export type TimelineSeries = {
   /** Short name used in the legend and the text alternative, e.g. "This trial (Trial 12)". */
@@ -7,14 +7,16 @@ export type TimelineSeries = {
   variant: 'main' | 'paired';
 };
 
-const W = 640;
-const LEFT = 52;
-const RIGHT = 20;
-const TOP = 16;
+// A narrow canvas with large type, so the labels stay readable when a phone scales it down.
+const W = 480;
+const LEFT = 50;
+const RIGHT = 16;
+const TOP = 26;
 const PLOT_H = 170;
-const STRIP_H = 34;
+const STRIP_H = 44;
+const FONT = 15;
 const PLOT_W = W - LEFT - RIGHT;
-const ACTIVITY_R: Record<WormActivity, number> = { none: 4, few: 4.5, many: 6.5, swarming: 9 };
+const ACTIVITY_R: Record<WormActivity, number> = { none: 4.5, few: 4.5, many: 7, swarming: 10 };
 
 function dayTicks(maxDay: number): number[] {
   const step = [1, 2, 7, 14, 28, 56].find((s) => maxDay / s <= 8) ?? 112;
@@ -29,7 +31,8 @@ function describe(s: TimelineSeries): string {
   const first = s.points[0];
   const last = s.points[s.points.length - 1];
   const firstWorms = s.points.find((p) => p.wormActivity !== 'none');
-  const peak = s.points.reduce((a, p) => (ACTIVITY_R[p.wormActivity] > ACTIVITY_R[a.wormActivity] ? p : a), first);
+  const rank = (a: WormActivity) => ACTIVITY_LEVELS.indexOf(a);
+  const peak = s.points.reduce((a, p) => (rank(p.wormActivity) > rank(a.wormActivity) ? p : a), first);
   return (
     `${s.label}: ${s.points.length} check-in${s.points.length === 1 ? '' : 's'}; ` +
     `${first.shareRemainingPct}% left on day ${first.day}, ${last.shareRemainingPct}% on day ${last.day}. ` +
@@ -48,40 +51,40 @@ export function TimelineChart({ series, id = 'timeline' }: { series: readonly Ti
   const maxDay = Math.max(7, ...all.map((p) => p.day));
   const x = (day: number) => LEFT + (day / maxDay) * PLOT_W;
   const y = (share: number) => TOP + (1 - share / 100) * PLOT_H;
-  const stripTop = TOP + PLOT_H + 24;
+  const stripTop = TOP + PLOT_H + 14;
   const axisY = stripTop + series.length * STRIP_H + 8;
-  const H = axisY + 34;
+  const H = axisY + 40;
   const titleId = `${id}-title`;
   const descId = `${id}-desc`;
   const cls = (v: TimelineSeries['variant']) => (v === 'main' ? 'text-accent' : 'text-verdict-prepare');
 
   return (
     <figure className="space-y-3">
-      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-labelledby={`${titleId} ${descId}`} className="h-auto w-full max-w-3xl rounded-lg border border-line bg-surface-raised">
+      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-labelledby={`${titleId} ${descId}`} className="h-auto w-full max-w-2xl rounded-lg border border-line bg-surface-raised">
         <title id={titleId}>Share of the dose remaining and worm activity by day</title>
         <desc id={descId}>{series.map(describe).join(' ')}</desc>
         {/* Share grid and axis */}
         {[0, 25, 50, 75, 100].map((v) => (
           <g key={v}>
             <line x1={LEFT} x2={W - RIGHT} y1={y(v)} y2={y(v)} stroke="#DCCFBA" strokeWidth={1} />
-            <text x={LEFT - 8} y={y(v) + 4} textAnchor="end" fontSize={12} fill="#5E5043">
+            <text x={LEFT - 6} y={y(v) + 5} textAnchor="end" fontSize={FONT - 1} fill="#5E5043">
               {v}%
             </text>
           </g>
         ))}
-        <text x={LEFT} y={TOP - 4} fontSize={12} fill="#5E5043">
-          left of the dose
+        <text x={LEFT} y={TOP - 10} fontSize={FONT} fill="#5E5043">
+          share of the dose left
         </text>
         {/* Day ticks */}
         {dayTicks(maxDay).map((d) => (
           <g key={d}>
             <line x1={x(d)} x2={x(d)} y1={TOP} y2={axisY - 6} stroke="#EFE6D6" strokeWidth={1} />
-            <text x={x(d)} y={axisY + 8} textAnchor="middle" fontSize={12} fill="#5E5043">
+            <text x={x(d)} y={axisY + 12} textAnchor="middle" fontSize={FONT} fill="#5E5043">
               {d}
             </text>
           </g>
         ))}
-        <text x={LEFT + PLOT_W / 2} y={axisY + 26} textAnchor="middle" fontSize={12} fill="#5E5043">
+        <text x={LEFT + PLOT_W / 2} y={axisY + 32} textAnchor="middle" fontSize={FONT} fill="#5E5043">
           days since the start
         </text>
         {/* Share lines */}
@@ -90,26 +93,26 @@ export function TimelineChart({ series, id = 'timeline' }: { series: readonly Ti
             <polyline
               fill="none"
               stroke="currentColor"
-              strokeWidth={2.5}
+              strokeWidth={3}
               strokeDasharray={s.variant === 'paired' ? '7 5' : undefined}
               points={s.points.map((p) => `${x(p.day)},${y(p.shareRemainingPct)}`).join(' ')}
             />
             {s.points.map((p) =>
               s.variant === 'main' ? (
-                <circle key={p.date} cx={x(p.day)} cy={y(p.shareRemainingPct)} r={4} fill="currentColor" />
+                <circle key={p.date} cx={x(p.day)} cy={y(p.shareRemainingPct)} r={5} fill="currentColor" />
               ) : (
-                <rect key={p.date} x={x(p.day) - 4} y={y(p.shareRemainingPct) - 4} width={8} height={8} fill="currentColor" />
+                <rect key={p.date} x={x(p.day) - 5} y={y(p.shareRemainingPct) - 5} width={10} height={10} fill="currentColor" />
               ),
             )}
           </g>
         ))}
         {/* Worm activity strips */}
         {series.map((s, i) => {
-          const cy = stripTop + i * STRIP_H + STRIP_H / 2;
+          const cy = stripTop + i * STRIP_H + STRIP_H - 12;
           return (
             <g key={`${s.label}-strip`} className={cls(s.variant)}>
-              <text x={LEFT - 8} y={cy + 4} textAnchor="end" fontSize={11} fill="#5E5043">
-                {series.length > 1 ? (s.variant === 'main' ? 'worms' : 'worms (pair)') : 'worms'}
+              <text x={LEFT} y={cy - 12} fontSize={FONT - 1} fill="#5E5043">
+                worms in the feed{series.length > 1 ? ` (${s.label.toLowerCase()})` : ''}
               </text>
               <line x1={LEFT} x2={W - RIGHT} y1={cy} y2={cy} stroke="#DCCFBA" strokeWidth={1} />
               {s.points.map((p) => (

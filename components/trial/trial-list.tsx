@@ -34,7 +34,7 @@ export function TrialList({ rows, caption, showFeedstock = true }: { rows: reado
           <tbody>
             {rows.map((r) => (
               <tr key={r.id}>
-                <th scope="row">
+                <th scope="row" className="border-t border-line">
                   <Link href={`/trials/${r.id}`}>Trial {r.id}</Link>
                   {r.isDemo ? <span className="ml-1 text-xs font-normal text-ink-muted">(demo)</span> : null}
                   <span className="block text-sm font-normal text-ink-muted">{PREPARATION_LABELS[r.preparation]}</span>

@@ -211,7 +211,7 @@ export interface TrialDetail extends TrialSummaryDto {
   confirmedOutcome: Outcome | null;
   closeReason: string | null;
   closedAt: string | null;
-  /** What the engine reads off the check-ins now (classifyTrial). */
+  /** What the engine reads off the check-ins alone (classifyTrial without the keeper's confirmation). */
   derived: {
     outcome: Outcome | null;
     reasons: string[];
@@ -276,8 +276,9 @@ export async function getTrialDetail(id: number, actor: Actor = null): Promise<T
   const mine = checkIns.get(trial.id) ?? [];
   const myPhotos = photos.filter((p) => p.trialId === trial.id).map(toPhotoDto);
   const input = toTrialInput(trial, mine, myPhotos.length);
-  const derived = classifyTrial(input);
-  const ifClosed = trial.status === 'running' ? classifyTrial({ ...input, status: 'closed', outcomeOverride: null }).outcome : (trial.proposedOutcome ?? null);
+  // What the check-ins alone say (the keeper's confirmation is shown beside it, not mixed in).
+  const derived = classifyTrial({ ...input, outcomeOverride: null });
+  const ifClosed = trial.status === 'running' ? classifyTrial({ ...input, status: 'closed', outcomeOverride: null }).outcome : (trial.proposedOutcome ?? derived.outcome);
   const start = dayNumber(trial.startDate);
   const resource = { ownerId: trial.ownerId };
   const running = trial.status === 'running';

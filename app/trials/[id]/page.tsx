@@ -15,6 +15,7 @@ import {
   formatDose,
   formatNumber,
   OUTCOME_DESCRIPTIONS,
+  OUTCOME_LABELS,
   PREPARATION_LABELS,
   PROVENANCE_LABELS,
   SPECIES_LABELS,
@@ -91,14 +92,12 @@ function OutcomeSection({ t }: { t: TrialDetail }) {
         <Card>
           <h3 className="text-lg">What the check-ins show</h3>
           <p className="mt-2">
-            <OutcomeBadge outcome={t.status === 'running' ? derived.outcome : t.proposedOutcome} />
+            <OutcomeBadge outcome={derived.outcome} />
           </p>
           <ul className="mt-2 list-disc space-y-1 pl-5 text-sm">
-            {derived.reasons
-              .filter((r) => !r.startsWith('the owner confirmed'))
-              .map((r) => (
-                <li key={r}>{r[0].toUpperCase() + r.slice(1)}.</li>
-              ))}
+            {derived.reasons.map((r) => (
+              <li key={r}>{r[0].toUpperCase() + r.slice(1)}.</li>
+            ))}
           </ul>
           {derived.adverseEvents.length ? (
             <p className="mt-2 text-sm">
@@ -116,9 +115,9 @@ function OutcomeSection({ t }: { t: TrialDetail }) {
                 <OutcomeBadge outcome={t.confirmedOutcome} />
               </p>
               {t.confirmedOutcome ? <p className="mt-2 text-sm">{OUTCOME_DESCRIPTIONS[t.confirmedOutcome]}</p> : null}
-              {t.proposedOutcome && t.confirmedOutcome && t.proposedOutcome !== t.confirmedOutcome ? (
+              {t.proposedIfClosed && t.confirmedOutcome && t.proposedIfClosed !== t.confirmedOutcome ? (
                 <p className="mt-2 text-sm">
-                  Corrected from the proposed outcome ({t.proposedOutcome}){t.closeReason ? ': ' : '.'}
+                  Corrected from the outcome the check-ins gave ({OUTCOME_LABELS[t.proposedIfClosed].toLowerCase()}){t.closeReason ? ': ' : '.'}
                   {t.closeReason ? <q>{t.closeReason}</q> : null}
                 </p>
               ) : t.closeReason ? (
@@ -181,7 +180,7 @@ export default async function TrialPage({ params }: Props) {
         <h2 id="setup-heading" className="text-2xl">
           Set-up
         </h2>
-        <dl className="grid gap-x-6 gap-y-1 sm:grid-cols-[auto_1fr_auto_1fr]">
+        <dl className="grid grid-cols-[auto_1fr] gap-x-6 gap-y-1 lg:grid-cols-[auto_1fr_auto_1fr]">
           <Row label="Dose">
             {formatDose(t.dose.amount, t.dose.unit)}
             {t.dose.unit !== 'kg' ? ` (${formatNumber(t.doseKg, 3)} kg)` : ''}
