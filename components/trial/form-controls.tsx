@@ -7,11 +7,10 @@ import { cx } from '@/components/ui/class-names';
  * Server-safe (no state); the forms that use them are client components.
  */
 
-const controlClass = (error?: string) =>
-  cx(
-    'min-h-touch w-full rounded-md border bg-surface-raised px-3 text-base text-ink',
-    error ? 'border-2 border-danger' : 'border-line-strong',
-  );
+/** Border, height and type of a control; width is up to the caller. */
+const boxClass = (error?: string) =>
+  cx('min-h-touch rounded-md border bg-surface-raised px-3 text-base text-ink', error ? 'border-2 border-danger' : 'border-line-strong');
+const controlClass = (error?: string) => cx(boxClass(error), 'w-full');
 
 /** Ids of a control's hint and error, for aria-describedby. */
 function describedBy(id: string, hasHint: unknown, hasError: unknown) {
@@ -156,7 +155,7 @@ export function QuantityField({ label, name, units, defaultAmount, defaultUnit, 
           required={required}
           aria-invalid={amountError ? true : undefined}
           aria-describedby={describedBy(amountId, hint, amountError)}
-          className={cx(controlClass(amountError), 'min-w-0 flex-1')}
+          className={cx(boxClass(amountError), 'w-full min-w-0 flex-1')}
         />
         <label htmlFor={unitId} className="sr-only">
           {label}: unit
@@ -167,7 +166,7 @@ export function QuantityField({ label, name, units, defaultAmount, defaultUnit, 
           defaultValue={defaultUnit}
           aria-invalid={unitError ? true : undefined}
           aria-describedby={unitError ? `${unitId}-error` : undefined}
-          className={cx(controlClass(unitError), 'w-auto min-w-24 flex-none')}
+          className={cx(boxClass(unitError), 'min-w-24 max-w-[45%] flex-none')}
         >
           {grouped
             ? (units as readonly { group: string; options: readonly Option[] }[]).map((g) => (

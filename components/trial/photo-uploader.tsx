@@ -22,7 +22,7 @@ export function PhotoUploader({ trialId }: { trialId: number }) {
   }
 
   return (
-    <div className="space-y-3">
+    <div className="max-w-3xl space-y-3 pt-2">
       <PhotoInput key={inputKey} id="trial-photos" label="Add photos to this trial" onFiles={onFiles} />
       <UploadList items={uploads.items} />
     </div>

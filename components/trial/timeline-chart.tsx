@@ -60,7 +60,7 @@ export function TimelineChart({ series, id = 'timeline' }: { series: readonly Ti
 
   return (
     <figure className="space-y-3">
-      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-labelledby={`${titleId} ${descId}`} className="h-auto w-full max-w-2xl rounded-lg border border-line bg-surface-raised">
+      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-labelledby={`${titleId} ${descId}`} className="h-auto w-full max-w-xl rounded-lg border border-line bg-surface-raised">
         <title id={titleId}>Share of the dose remaining and worm activity by day</title>
         <desc id={descId}>{series.map(describe).join(' ')}</desc>
         {/* Share grid and axis */}

@@ -6,7 +6,7 @@ import path from 'node:path';
 import { EvidenceAggregate, EvidenceVerdict, Feedstock, Photo, Trial, User } from '@/db/models';
 import { createLocalStorage } from '@/lib/storage';
 import { deletePhoto, uploadPhoto } from '@/lib/services/photos';
-import { aggregateFeedstock } from '@/lib/evidence';
+import { aggregateFeedstock, type GroupAggregate, type SettingVerdict } from '@/lib/evidence';
 import { loadTrialInputs } from '@/lib/services/evidence';
 import { addCheckIn, closeTrial, createTrial, updateTrial } from '@/lib/services/trials';
 import { buildFeedstock, buildUser } from '../support/factories';
@@ -30,9 +30,13 @@ describe('evidence recompute on trial and check-in writes', () => {
   });
 
   const stored = async () => {
-    const groups = await EvidenceAggregate.findAll({ where: { feedstockId: feedstock.id }, order: [['setting', 'ASC'], ['preparation', 'ASC']] });
-    const settings = await EvidenceVerdict.findAll({ where: { feedstockId: feedstock.id }, order: [['setting', 'ASC']] });
-    return { groups: groups.map((g) => g.result), settings: settings.map((s) => s.result) };
+    const groups = await EvidenceAggregate.findAll({ where: { feedstockId: feedstock.id } });
+    const settings = await EvidenceVerdict.findAll({ where: { feedstockId: feedstock.id } });
+    // Sorted here by name (ORDER BY on an ENUM column sorts by the enum's order, not its text).
+    return {
+      groups: groups.map((g) => g.result as unknown as GroupAggregate).sort((a, b) => a.setting.localeCompare(b.setting) || a.preparation.localeCompare(b.preparation)),
+      settings: settings.map((s) => s.result as unknown as SettingVerdict).sort((a, b) => a.setting.localeCompare(b.setting)),
+    };
   };
   const expected = async () => {
     const r = aggregateFeedstock(await loadTrialInputs(feedstock.id));

@@ -243,7 +243,7 @@ export default async function TrialPage({ params }: Props) {
           <h2 id="add-check-in-heading" className="text-2xl">
             Add a check-in
           </h2>
-          <Card>
+          <Card className="max-w-3xl">
             <CheckInForm trialId={t.id} startDate={t.startDate} today={today < t.startDate ? t.startDate : today} action={addCheckInAction.bind(null, t.id)} />
           </Card>
         </section>
@@ -254,7 +254,7 @@ export default async function TrialPage({ params }: Props) {
           <h2 id="close-heading" className="text-2xl">
             Close this trial
           </h2>
-          <Card>
+          <Card className="max-w-3xl">
             <CloseTrialForm proposed={t.proposedIfClosed} action={closeTrialAction.bind(null, t.id)} />
           </Card>
         </section>
