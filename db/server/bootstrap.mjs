@@ -34,6 +34,8 @@ function readDotEnv(file) {
     if (!m) continue;
     let v = m[2];
     if ((v.startsWith('"') && v.endsWith('"')) || (v.startsWith("'") && v.endsWith("'"))) v = v.slice(1, -1);
+    // An unquoted value ends at a comment (`PORT=3000   # …`, as in .env.example).
+    else v = v.replace(/(^|\s+)#.*$/, '').trim();
     out[m[1]] = v;
   }
   return out;
