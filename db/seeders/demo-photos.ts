@@ -7,8 +7,8 @@ export const DEMO_PHOTO_SIZE = { width: 480, height: 360 } as const;
 const escapeXml = (s: string) => s.replace(/[<>&'"]/g, (c) => ({ '<': '&lt;', '>': '&gt;', '&': '&amp;', "'": '&apos;', '"': '&quot;' })[c]!);
 
 /** A small deterministic PRNG (mulberry32), so the same trial always gets the same picture. */
-function prng(seed: number) {
-  let a = seed >>> 0;
+function prng(start: number) {
+  let a = start >>> 0;
   return () => {
     a = (a + 0x6d2b79f5) >>> 0;
     let t = a;
@@ -24,9 +24,9 @@ function prng(seed: number) {
  * text. Returns a JPEG and its WebP thumbnail, both without metadata, as the
  * upload path would store them.
  */
-export async function renderPlaceholderPhoto(opts: { title: string; subtitle: string; seed: number }): Promise<{ full: Buffer; thumb: Buffer; width: number; height: number }> {
+export async function renderPlaceholderPhoto(opts: { title: string; subtitle: string; pattern: number }): Promise<{ full: Buffer; thumb: Buffer; width: number; height: number }> {
   const { width, height } = DEMO_PHOTO_SIZE;
-  const rnd = prng(opts.seed);
+  const rnd = prng(opts.pattern);
   const soils = ['#4a3527', '#5b4030', '#3f2d21', '#6a4b35'];
   const specks = Array.from({ length: 40 }, () => {
     const x = Math.round(rnd() * width);
@@ -36,7 +36,7 @@ export async function renderPlaceholderPhoto(opts: { title: string; subtitle: st
     return `<ellipse cx="${x}" cy="${y}" rx="${r}" ry="${Math.max(1, r - 2)}" fill="${fill}" opacity="0.8"/>`;
   }).join('');
   const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}">
-  <rect width="100%" height="100%" fill="${soils[opts.seed % soils.length]}"/>
+  <rect width="100%" height="100%" fill="${soils[opts.pattern % soils.length]}"/>
   ${specks}
   <rect x="24" y="${height - 118}" width="${width - 48}" height="100" rx="10" fill="#FFFDF8" opacity="0.88"/>
   <text x="40" y="${height - 84}" font-family="DejaVu Sans, Liberation Sans, sans-serif" font-size="24" font-weight="bold" fill="#2B2119">${escapeXml(opts.title)}</text>

@@ -332,7 +332,7 @@ async function addDemoPhotos(
     for (let i = next++; i < jobs.length; i = next++) {
       const j = jobs[i];
       const title = `${j.feedstockName}, ${j.row.preparation}`;
-      const photo = await renderPlaceholderPhoto({ title, subtitle: `Trial ${j.row.id} · day ${j.day} · photo ${j.k + 1} of ${j.count}`, seed: j.row.id * 31 + j.k });
+      const photo = await renderPlaceholderPhoto({ title, subtitle: `Trial ${j.row.id} · day ${j.day} · photo ${j.k + 1} of ${j.count}`, pattern: j.row.id * 31 + j.k });
       const key = `demo/trial-${j.row.id}-${j.k + 1}.jpg`;
       const thumbKey = `demo/trial-${j.row.id}-${j.k + 1}-thumb.webp`;
       await storage.put(key, photo.full, 'image/jpeg');

@@ -8,12 +8,12 @@ import type { TrialNeedingCheckIn } from '@/components/layout/home-sections';
 import { ADVERSE_EVENT_WORDS, classifyTrial, dayNumber } from '@/lib/evidence';
 import { can, type Actor } from '@/lib/policies';
 import { toTrialInput } from '@/lib/services/evidence';
-import { toPhotoDto, type PhotoDto } from '@/lib/services/photos';
+import { toPhotoDto, type PhotoDto } from '@/lib/photos/dto';
 import { contributorLabel } from '@/lib/trials/contributor';
 import { isCheckInDue, nextCheckInDue, utcDate } from '@/lib/trials/schedule';
 import type { TrialListQuery } from '@/lib/validation/trials';
 
-export type { PhotoDto } from '@/lib/services/photos';
+export type { PhotoDto } from '@/lib/photos/dto';
 
 /** Trials per page of the trial list. */
 export const TRIALS_PER_PAGE = 20;
@@ -475,7 +475,9 @@ export const CHECK_IN_EXPORT_COLUMNS = [
 export type CheckInExportColumn = (typeof CHECK_IN_EXPORT_COLUMNS)[number];
 
 type Cell = string | number | boolean | null;
+/** One trial in an export, by column. */
 export type TrialExportRow = Record<TrialExportColumn, Cell>;
+/** One check-in in an export, by column (pests as a list; CSV joins them with ";"). */
 export type CheckInExportRow = Record<Exclude<CheckInExportColumn, 'pests'>, Cell> & { pests: string[] };
 
 /**

@@ -10,7 +10,8 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { chromium, type Browser } from 'playwright-core';
+import { AxeBuilder } from '@axe-core/playwright';
+import { chromium, type Browser, type Page } from 'playwright-core';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { freePort } from '../../db/server/mariadb.mjs';
@@ -24,6 +25,8 @@ import { createSessionFor } from '../support/session';
 
 const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
 const day = (offset: number) => new Date(Date.now() + offset * 86_400_000).toISOString().slice(0, 10);
+const axeViolations = async (page: Page) =>
+  (await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).analyze()).violations.map((v) => `${v.id} (${v.nodes.length})`);
 
 describe('trial logging on a phone', () => {
   let app: Awaited<ReturnType<typeof startNextHandler>>;
@@ -67,6 +70,13 @@ describe('trial logging on a phone', () => {
 
     // New trial: the feedstock is picked from the combobox by typing part of its name.
     await page.goto(`${base}/trials/new`);
+    expect(await axeViolations(page)).toEqual([]);
+    // Sending it empty shows the shared schema's messages next to the fields, and a summary.
+    await page.getByRole('button', { name: 'Log this trial' }).click();
+    await page.locator('#form-errors').waitFor();
+    expect(await page.getByText('Choose a feedstock.').count()).toBeGreaterThan(0);
+    expect(await page.getByText('Dose must be more than zero.').count()).toBeGreaterThan(0);
+    expect(await axeViolations(page)).toEqual([]);
     await page.getByRole('combobox', { name: /Feedstock/ }).fill(feedstock.name.slice(0, 10));
     await page.getByRole('option', { name: feedstock.name }).click();
     await page.getByLabel('Preparation').selectOption('chopped');
@@ -81,6 +91,7 @@ describe('trial logging on a phone', () => {
     await page.waitForURL(/\/trials\/\d+$/);
     const trialId = Number(new URL(page.url()).pathname.split('/').pop());
     expect(await page.getByRole('heading', { level: 1 }).textContent()).toContain(feedstock.name);
+    expect(await axeViolations(page)).toEqual([]);
 
     // A photo of the set-up, straight from the camera input, with a progress bar.
     await page.locator('#trial-photos').setInputFiles({ name: 'IMG_0001.jpg', mimeType: 'image/jpeg', buffer: photo });
