@@ -323,16 +323,23 @@ async function addDemoPhotos(
       // Photo 0 shows the set-up; the others go with check-ins, spread from first to last.
       const checkIn = k === 0 || !list.length ? null : list[Math.round(((k - 1) * (list.length - 1)) / Math.max(1, spec.photoCount - 2))] ?? list.at(-1)!;
       const day = checkIn ? Math.round((Date.parse(checkIn.observedOn) - Date.parse(row.startDate)) / 86_400_000) : 0;
-      return { row, checkIn, k, day, feedstockName, count: spec.photoCount };
+      return { row, checkIn, k, day, feedstockName };
     });
   });
   const rows: Omit<InferCreationAttributes<Photo>, 'id' | 'updatedAt'>[] = [];
+  // One picture per trial, shared by its photos (rendering is the slow part of loading the demo).
+  const pictures = new Map<number, ReturnType<typeof renderPlaceholderPhoto>>();
+  const pictureOf = (row: Trial, feedstockName: string) => {
+    if (!pictures.has(row.id)) {
+      pictures.set(row.id, renderPlaceholderPhoto({ title: `${feedstockName}, ${row.preparation}`, subtitle: `Trial ${row.id} · started ${row.startDate}`, pattern: row.id }));
+    }
+    return pictures.get(row.id)!;
+  };
   let next = 0;
   const worker = async () => {
     for (let i = next++; i < jobs.length; i = next++) {
       const j = jobs[i];
-      const title = `${j.feedstockName}, ${j.row.preparation}`;
-      const photo = await renderPlaceholderPhoto({ title, subtitle: `Trial ${j.row.id} · day ${j.day} · photo ${j.k + 1} of ${j.count}`, pattern: j.row.id * 31 + j.k });
+      const photo = await pictureOf(j.row, j.feedstockName);
       const key = `demo/trial-${j.row.id}-${j.k + 1}.jpg`;
       const thumbKey = `demo/trial-${j.row.id}-${j.k + 1}-thumb.webp`;
       await storage.put(key, photo.full, 'image/jpeg');
