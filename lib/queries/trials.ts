@@ -410,30 +410,61 @@ export async function getTrialForEdit(
   };
 }
 
-/** Running trials of an owner with the date of their last check-in (two queries). */
-async function runningTrialsWithLastCheckIn(where: WhereOptions<Trial>) {
+/** A running trial whose next check-in is due. */
+export interface DueCheckIn {
+  trialId: number;
+  /** Account id of the owner (server-side use: whom to remind); never shown. */
+  ownerId: string;
+  feedstockId: number;
+  feedstockName: string;
+  feedstockSlug: string;
+  setting: Setting;
+  preparation: Preparation;
+  checkInEveryDays: number;
+  startDate: string;
+  lastCheckIn: string | null;
+  /** The due date, `YYYY-MM-DD`. */
+  due: string;
+}
+
+/**
+ * Running trials (of one owner, or all) whose next check-in — start + k ×
+ * schedule, the first after the last check-in — is due by `now` (its UTC
+ * date), oldest due first. Two queries.
+ */
+export async function listDueCheckIns(now = new Date(), ownerId?: string): Promise<DueCheckIn[]> {
+  const today = utcDate(now);
   const trials = await Trial.findAll({
-    where: { ...where, status: 'running' },
+    where: { status: 'running', ...(ownerId ? { ownerId } : {}) },
     include: [{ model: Feedstock, as: 'feedstock', attributes: ['id', 'slug', 'name'] }],
     order: [['id', 'ASC']],
   });
   if (!trials.length) return [];
-  const last = await sequelize.query<{ trial_id: number; last: string }>(
+  const last = await sequelize.query<{ trial_id: number; last: string | Date }>(
     'SELECT trial_id, MAX(observed_on) AS last FROM check_ins WHERE trial_id IN (:ids) GROUP BY trial_id',
     { replacements: { ids: trials.map((t) => t.id) }, type: QueryTypes.SELECT },
   );
   const byTrial = new Map(last.map((r) => [Number(r.trial_id), typeof r.last === 'string' ? r.last.slice(0, 10) : utcDate(new Date(r.last))]));
-  return trials.map((t) => {
-    const lastCheckIn = byTrial.get(t.id) ?? null;
-    return { trial: t, feedstock: (t as Trial & { feedstock: Feedstock }).feedstock, lastCheckIn, due: nextCheckInDue(t.startDate, t.checkInEveryDays, lastCheckIn) };
-  });
-}
-
-/** Running trials whose next check-in is due by `now` (UTC date), oldest due first; for the job that queues reminders. */
-export async function listDueCheckIns(now = new Date(), ownerId?: string) {
-  const today = utcDate(now);
-  const rows = await runningTrialsWithLastCheckIn(ownerId ? { ownerId } : {});
-  return rows.filter((r) => isCheckInDue(r.due, today)).sort((a, b) => a.due.localeCompare(b.due) || a.trial.id - b.trial.id);
+  return trials
+    .map((t) => {
+      const feedstock = (t as Trial & { feedstock: Feedstock }).feedstock;
+      const lastCheckIn = byTrial.get(t.id) ?? null;
+      return {
+        trialId: t.id,
+        ownerId: t.ownerId,
+        feedstockId: feedstock.id,
+        feedstockName: feedstock.name,
+        feedstockSlug: feedstock.slug,
+        setting: t.setting,
+        preparation: t.preparation,
+        checkInEveryDays: t.checkInEveryDays,
+        startDate: t.startDate,
+        lastCheckIn,
+        due: nextCheckInDue(t.startDate, t.checkInEveryDays, lastCheckIn),
+      };
+    })
+    .filter((d) => isCheckInDue(d.due, today))
+    .sort((a, b) => a.due.localeCompare(b.due) || a.trialId - b.trialId);
 }
 
 /**
@@ -442,12 +473,12 @@ export async function listDueCheckIns(now = new Date(), ownerId?: string) {
  */
 export async function listTrialsNeedingCheckIns(ownerId: string, now = new Date()): Promise<TrialNeedingCheckIn[]> {
   const rows = await listDueCheckIns(now, ownerId);
-  return rows.map(({ trial, feedstock, due }) => ({
-    trialId: trial.id,
-    title: `Trial ${trial.id}: ${feedstock.name}, ${trial.preparation}`,
-    feedstockName: feedstock.name,
-    setting: trial.setting,
-    dueAt: `${due}T00:00:00Z`,
+  return rows.map((d) => ({
+    trialId: d.trialId,
+    title: `Trial ${d.trialId}: ${d.feedstockName}, ${d.preparation}`,
+    feedstockName: d.feedstockName,
+    setting: d.setting,
+    dueAt: `${d.due}T00:00:00Z`,
   }));
 }
 

@@ -23,30 +23,30 @@ export async function queueDueCheckInReminders(now = new Date()): Promise<{ due:
   const due = await listDueCheckIns(now);
   if (!due.length) return { due: 0, queued: 0 };
   const owners = await User.findAll({
-    where: { id: { [Op.in]: [...new Set(due.map((d) => d.trial.ownerId))] } },
+    where: { id: { [Op.in]: [...new Set(due.map((d) => d.ownerId))] } },
     attributes: ['id', 'email', 'disabledAt'],
   });
   const byId = new Map(owners.map((o) => [o.id, o]));
-  const rows = due.flatMap(({ trial, feedstock, lastCheckIn, due: dueDate }) => {
-    const owner = byId.get(trial.ownerId);
+  const rows = due.flatMap((d) => {
+    const owner = byId.get(d.ownerId);
     if (!owner?.email || owner.disabledAt) return [];
     return [
       {
         kind: CHECK_IN_DUE_KIND,
         recipient: owner.email,
         subscriptionId: null,
-        feedstockId: feedstock.id,
-        dedupeKey: checkInDueKey(trial.id, dueDate),
+        feedstockId: d.feedstockId,
+        dedupeKey: checkInDueKey(d.trialId, d.due),
         payload: {
-          trialId: trial.id,
-          path: `/trials/${trial.id}`,
-          dueDate,
-          lastCheckIn,
-          checkInEveryDays: trial.checkInEveryDays,
-          feedstockName: feedstock.name,
-          feedstockSlug: feedstock.slug,
-          setting: trial.setting,
-          preparation: trial.preparation,
+          trialId: d.trialId,
+          path: `/trials/${d.trialId}`,
+          dueDate: d.due,
+          lastCheckIn: d.lastCheckIn,
+          checkInEveryDays: d.checkInEveryDays,
+          feedstockName: d.feedstockName,
+          feedstockSlug: d.feedstockSlug,
+          setting: d.setting,
+          preparation: d.preparation,
         },
       },
     ];
