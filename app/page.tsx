@@ -1,11 +1,9 @@
 import Link from 'next/link';
+import { getActor } from '@/lib/auth/actor';
 import { listRecentDecisions } from '@/lib/queries/home';
+import { listTrialsNeedingCheckIns } from '@/lib/queries/trials';
 import { SearchBox } from '@/components/search/search-box';
-import {
-  RecentDecisions,
-  TrialsNeedingCheckIns,
-  type TrialNeedingCheckIn,
-} from '@/components/layout/home-sections';
+import { RecentDecisions, TrialsNeedingCheckIns } from '@/components/layout/home-sections';
 import { VerdictLegend } from '@/components/layout/verdict-legend';
 import { SETTINGS, SETTING_DESCRIPTIONS, SETTING_LABELS } from '@/components/layout/vocabulary';
 
@@ -13,11 +11,9 @@ import { SETTINGS, SETTING_DESCRIPTIONS, SETTING_LABELS } from '@/components/lay
 export const dynamic = 'force-dynamic';
 
 export default async function HomePage() {
-  const recentDecisions = await listRecentDecisions();
-  // SLOT: trials needing check-ins — the signed-in contributor's own trials
-  // whose next check-in is due. Empty (and to be hidden for anonymous
-  // readers) until the session and queries exist.
-  const trialsNeedingCheckIns: TrialNeedingCheckIn[] = [];
+  const [recentDecisions, actor] = await Promise.all([listRecentDecisions(), getActor()]);
+  // The signed-in keeper's own running trials whose next check-in is due; hidden for visitors.
+  const trialsNeedingCheckIns = actor ? await listTrialsNeedingCheckIns(actor.id) : null;
 
   return (
     <div className="space-y-14">
@@ -81,7 +77,7 @@ export default async function HomePage() {
 
       <div className="grid gap-10 md:grid-cols-2">
         <RecentDecisions decisions={recentDecisions} />
-        <TrialsNeedingCheckIns trials={trialsNeedingCheckIns} />
+        {trialsNeedingCheckIns ? <TrialsNeedingCheckIns trials={trialsNeedingCheckIns} /> : null}
       </div>
     </div>
   );

@@ -1,6 +1,6 @@
 /**
  * Database commands, run by `npm start` / `npm test` and by hand:
- *   migrate | migrate-down-all | seed-demo | recompute
+ *   migrate | migrate-down-all | seed-demo | recompute | queue-reminders
  * Run with `node --conditions=react-server --import tsx db/cli.ts <command>`
  * (the npm scripts `db:migrate`, `db:seed`, `recompute` do this).
  */
@@ -32,8 +32,15 @@ async function main(command: string | undefined) {
       for (const c of report.changes) console.log(`  ${c.slug} (${c.setting}): ${c.from ?? 'none'} → ${c.to}`);
       break;
     }
+    case 'queue-reminders': {
+      // A job: run it daily (cron, systemd timer); each due check-in is queued once.
+      const { queueDueCheckInReminders } = await import('@/lib/services/reminders');
+      const r = await queueDueCheckInReminders(new Date());
+      console.log(`${r.due} trial(s) with a check-in due; ${r.queued} reminder(s) queued in the outbox`);
+      break;
+    }
     default:
-      console.error('usage: db/cli.ts migrate|migrate-down-all|seed-demo|recompute');
+      console.error('usage: db/cli.ts migrate|migrate-down-all|seed-demo|recompute|queue-reminders');
       process.exitCode = 2;
   }
 }

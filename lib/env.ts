@@ -26,6 +26,20 @@ const EnvSchema = z.object({
   SMTP_PASSWORD: z.string().default(''),
   SMTP_SECURE: z.enum(['0', '1']).default('0'),
   MAIL_FROM: z.string().default('Trialbed <no-reply@trialbed.invalid>'),
+  /** Where photos go: `local` (DATA_DIR/uploads) or an S3-compatible bucket. */
+  STORAGE_DRIVER: z.enum(['local', 's3']).default('local'),
+  /** S3-compatible endpoint; empty for AWS itself (then S3_REGION picks the endpoint). */
+  S3_ENDPOINT: z.union([z.literal(''), z.string().url()]).default(''),
+  S3_BUCKET: z.string().default(''),
+  S3_REGION: z.string().min(1).default('us-east-1'),
+  S3_ACCESS_KEY_ID: z.string().default(''),
+  S3_SECRET_ACCESS_KEY: z.string().default(''),
+  /** 1: bucket in the path (http://host/bucket/key), as most self-hosted S3 servers need. */
+  S3_FORCE_PATH_STYLE: z.enum(['0', '1']).default('0'),
+}).superRefine((env, ctx) => {
+  if (env.STORAGE_DRIVER === 's3' && !env.S3_BUCKET) {
+    ctx.addIssue({ code: 'custom', path: ['S3_BUCKET'], message: 'required when STORAGE_DRIVER=s3' });
+  }
 });
 
 export type Env = z.infer<typeof EnvSchema>;

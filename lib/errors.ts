@@ -52,6 +52,12 @@ export class PayloadTooLargeError extends AppError {
     super(message, 413, 'payload_too_large');
   }
 }
+/** 415: the upload is not of a type we accept (judged by its content, not its name). */
+export class UnsupportedMediaTypeError extends AppError {
+  constructor(message = 'That type of file is not accepted.', fieldErrors?: FieldErrors) {
+    super(message, 415, 'unsupported_media_type', fieldErrors);
+  }
+}
 /** 429: too many requests; try again later. */
 export class RateLimitedError extends AppError {
   constructor(

@@ -1,10 +1,8 @@
 import Link from 'next/link';
+import { CONTENT_LICENCE } from '@/lib/licence';
 import { SafetyNote } from './safety-note';
 
-export const CONTENT_LICENCE = {
-  name: 'CC BY-SA 4.0',
-  url: 'https://creativecommons.org/licenses/by-sa/4.0/',
-} as const;
+export { CONTENT_LICENCE };
 
 /** Site footer: handling safety, content licence, link to About. */
 export function SiteFooter() {

@@ -1,5 +1,5 @@
 import 'server-only';
-import { UniqueConstraintError } from 'sequelize';
+import { Op, UniqueConstraintError, type InferCreationAttributes, type Transaction } from 'sequelize';
 import { sequelize } from '../index';
 import {
   AppMeta,
@@ -8,6 +8,7 @@ import {
   FeedstockAlias,
   FeedstockRequest,
   FeedstockRevision,
+  Photo,
   Proposal,
   ProposalTrial,
   PublishedVerdict,
@@ -19,6 +20,8 @@ import {
 import { normaliseDose } from '@/lib/evidence/normalise';
 import type { DoseQuantity } from '@/lib/evidence/types';
 import { recomputeFeedstock } from '@/lib/services/evidence';
+import { getStorage, type Storage } from '@/lib/storage';
+import { renderPlaceholderPhoto } from './demo-photos';
 import {
   DEMO_FEEDSTOCKS,
   DEMO_PEOPLE,
@@ -26,6 +29,7 @@ import {
   DEMO_REQUESTS,
   DEMO_SITES,
   DEMO_TRIALS,
+  type DemoTrial,
 } from './demo-scenario';
 
 /** The app_meta key that records that the demo scenario is in this database. */
@@ -39,7 +43,7 @@ const DEMO_PUBLISHED_AT = new Date('2026-01-15T09:00:00Z');
  * transaction that starts by inserting the marker row, so a second run (or a
  * concurrent one) adds nothing. Returns what was added.
  */
-export async function loadDemoScenario(): Promise<{ loaded: boolean; counts: Record<string, number> }> {
+export async function loadDemoScenario(opts: { storage?: Storage } = {}): Promise<{ loaded: boolean; counts: Record<string, number> }> {
   if (await AppMeta.findByPk(DEMO_MARKER)) return { loaded: false, counts: {} };
   try {
     return await sequelize.transaction(async (transaction) => {
@@ -217,6 +221,12 @@ export async function loadDemoScenario(): Promise<{ loaded: boolean; counts: Rec
         await trials.get(t.key)!.update({ pairedTrialId: paired.id }, { transaction });
       }
 
+      const photoCount = await addDemoPhotos(
+        DEMO_TRIALS.map((t) => ({ spec: t, row: trials.get(t.key)!, feedstockName: feedstocks.get(t.feedstockSlug)!.name })),
+        opts.storage ?? getStorage(),
+        transaction,
+      );
+
       let voteCount = 0;
       for (const p of DEMO_PROPOSALS) {
         const feedstock = feedstocks.get(p.feedstockSlug)!;
@@ -267,6 +277,7 @@ export async function loadDemoScenario(): Promise<{ loaded: boolean; counts: Rec
           feedstocks: feedstocks.size,
           trials: trials.size,
           checkIns: checkInCount,
+          photos: photoCount,
           proposals: DEMO_PROPOSALS.length,
           votes: voteCount,
           requests: DEMO_REQUESTS.length,
@@ -278,4 +289,77 @@ export async function loadDemoScenario(): Promise<{ loaded: boolean; counts: Rec
     if (err instanceof UniqueConstraintError) return { loaded: false, counts: {} };
     throw err;
   }
+}
+
+/** Placeholder photos rendered at once (sharp works on a thread pool). */
+const PHOTO_CONCURRENCY = 4;
+
+/**
+ * Gives every demo trial its `photoCount` placeholder photos (demo-photos.ts),
+ * stored through the storage interface under fixed keys (`demo/trial-<id>-<n>`,
+ * so a repeated load overwrites rather than piles up) and recorded as Photo
+ * rows: the first on the trial itself, the rest spread over its check-ins.
+ * Returns how many were made.
+ */
+async function addDemoPhotos(
+  trials: { spec: DemoTrial; row: Trial; feedstockName: string }[],
+  storage: Storage,
+  transaction: Transaction,
+): Promise<number> {
+  const withPhotos = trials.filter((t) => t.spec.photoCount > 0);
+  if (!withPhotos.length) return 0;
+  const checkIns = await CheckIn.findAll({
+    where: { trialId: { [Op.in]: withPhotos.map((t) => t.row.id) } },
+    attributes: ['id', 'trialId', 'observedOn'],
+    order: [['observedOn', 'ASC'], ['id', 'ASC']],
+    transaction,
+  });
+  const byTrial = new Map<number, CheckIn[]>();
+  for (const c of checkIns) byTrial.set(c.trialId, [...(byTrial.get(c.trialId) ?? []), c]);
+
+  const jobs = withPhotos.flatMap(({ spec, row, feedstockName }) => {
+    const list = byTrial.get(row.id) ?? [];
+    return Array.from({ length: spec.photoCount }, (_, k) => {
+      // Photo 0 shows the set-up; the others go with check-ins, spread from first to last.
+      const checkIn = k === 0 || !list.length ? null : list[Math.round(((k - 1) * (list.length - 1)) / Math.max(1, spec.photoCount - 2))] ?? list.at(-1)!;
+      const day = checkIn ? Math.round((Date.parse(checkIn.observedOn) - Date.parse(row.startDate)) / 86_400_000) : 0;
+      return { row, checkIn, k, day, feedstockName };
+    });
+  });
+  const rows: Omit<InferCreationAttributes<Photo>, 'id' | 'updatedAt'>[] = [];
+  // One picture per trial, shared by its photos (rendering is the slow part of loading the demo).
+  const pictures = new Map<number, ReturnType<typeof renderPlaceholderPhoto>>();
+  const pictureOf = (row: Trial, feedstockName: string) => {
+    if (!pictures.has(row.id)) {
+      pictures.set(row.id, renderPlaceholderPhoto({ title: `${feedstockName}, ${row.preparation}`, subtitle: `Trial ${row.id} · started ${row.startDate}`, pattern: row.id }));
+    }
+    return pictures.get(row.id)!;
+  };
+  let next = 0;
+  const worker = async () => {
+    for (let i = next++; i < jobs.length; i = next++) {
+      const j = jobs[i];
+      const photo = await pictureOf(j.row, j.feedstockName);
+      const key = `demo/trial-${j.row.id}-${j.k + 1}.jpg`;
+      const thumbKey = `demo/trial-${j.row.id}-${j.k + 1}-thumb.webp`;
+      await storage.put(key, photo.full, 'image/jpeg');
+      await storage.put(thumbKey, photo.thumb, 'image/webp');
+      rows[i] = {
+        trialId: j.row.id,
+        checkInId: j.checkIn?.id ?? null,
+        uploaderId: j.row.ownerId,
+        storageKey: key,
+        thumbKey,
+        contentType: 'image/jpeg',
+        width: photo.width,
+        height: photo.height,
+        bytes: photo.full.length,
+        caption: `Demo placeholder for a photo of ${j.feedstockName.toLowerCase()} on day ${j.day}`,
+        createdAt: new Date(`${j.checkIn?.observedOn ?? j.row.startDate}T18:00:00Z`),
+      };
+    }
+  };
+  await Promise.all(Array.from({ length: PHOTO_CONCURRENCY }, worker));
+  await Photo.bulkCreate(rows, { transaction });
+  return rows.length;
 }

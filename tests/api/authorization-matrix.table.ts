@@ -1,5 +1,8 @@
 import { sequelize } from '@/db';
-import { Feedstock, FeedstockRequest, FeedstockRevision, Proposal, PublishedVerdict, Vote, type User } from '@/db/models';
+import { CheckIn, Feedstock, FeedstockRequest, FeedstockRevision, Photo, Proposal, PublishedVerdict, Trial, Vote, type User } from '@/db/models';
+import { uploadPhoto } from '@/lib/services/photos';
+import { createTrial } from '@/lib/services/trials';
+import { smallPng } from '../support/images';
 import { buildFeedstock } from '../support/factories';
 import type { Role } from '@/lib/policies';
 
@@ -207,6 +210,59 @@ export const ROUTE_ROWS: RouteRow[] = [
     request: async () => ({ path: `/feedstocks/${(await freshFeedstock()).slug}/feed.xml` }),
     expect: all(200),
   },
+  // --- Trials, check-ins, photos and exports (issue: trial logging).
+  { route: 'GET /api/trials', request: async () => ({ path: '/api/trials?setting=bin' }), expect: all(200) },
+  { route: 'GET /api/trials/[id]', request: async (cell) => ({ path: `/api/trials/${(await trialFor(cell)).id}` }), expect: all(200) },
+  { route: 'GET /api/trials/[id]/check-ins', request: async (cell) => ({ path: `/api/trials/${(await trialFor(cell)).id}/check-ins` }), expect: all(200) },
+  { route: 'GET /api/trials/[id]/photos', request: async (cell) => ({ path: `/api/trials/${(await trialFor(cell)).id}/photos` }), expect: all(200) },
+  {
+    route: 'POST /api/trials',
+    request: async () => ({ path: '/api/trials', json: await trialBody() }),
+    expect: { anonymous: 401, reader: 403, contributor: 201, editor: 201, moderator: 201, admin: 201 },
+  },
+  {
+    // Someone else's trial: only moderators (and up) may correct it.
+    route: 'PATCH /api/trials/[id]',
+    request: async (cell) => {
+      const t = await trialFor(cell);
+      return { path: `/api/trials/${t.id}`, json: { version: t.version, notes: `Corrected by ${cell.who}.` } };
+    },
+    expect: { anonymous: 401, reader: 403, contributor: 403, editor: 403, moderator: 200, admin: 200 },
+    check: async (cell, { allowed }) => expectEqual((await Trial.findByPk(trials.get(cell)!.id))!.notes.startsWith('Corrected'), allowed, 'notes changed'),
+  },
+  {
+    route: 'POST /api/trials/[id]/check-ins',
+    request: async (cell) => ({ path: `/api/trials/${(await trialFor(cell)).id}/check-ins`, json: { observedOn: '2026-10-09', wormActivity: 'many', shareRemainingPct: 40 } }),
+    expect: { anonymous: 401, reader: 403, contributor: 403, editor: 403, moderator: 201, admin: 201 },
+    check: async (cell, { allowed }) => expectEqual(await CheckIn.count({ where: { trialId: trials.get(cell)!.id } }), allowed ? 1 : 0, 'check-ins'),
+  },
+  {
+    route: 'POST /api/trials/[id]/close',
+    request: async (cell) => ({ path: `/api/trials/${(await trialFor(cell)).id}/close`, json: { status: 'abandoned', reason: 'Bed flooded.' } }),
+    expect: { anonymous: 401, reader: 403, contributor: 403, editor: 403, moderator: 200, admin: 200 },
+    check: async (cell, { allowed }) => expectEqual((await Trial.findByPk(trials.get(cell)!.id))!.status, allowed ? 'abandoned' : 'running', 'trial status'),
+  },
+  {
+    // The body here is JSON, not an image: allowed callers get past the permission check and are refused by content (415).
+    route: 'POST /api/trials/[id]/photos',
+    request: async (cell) => ({ path: `/api/trials/${(await trialFor(cell)).id}/photos`, json: { not: 'an image' } }),
+    expect: { anonymous: 401, reader: 403, contributor: 403, editor: 403, moderator: 415, admin: 415 },
+    check: async (cell) => expectEqual(await Photo.count({ where: { trialId: trials.get(cell)!.id } }), 0, 'photos'),
+  },
+  { route: 'GET /api/photos/[id]', request: async (cell) => ({ path: `/api/photos/${(await photoFor(cell)).id}` }), expect: all(200) },
+  { route: 'GET /api/photos/[id]/thumbnail', request: async (cell) => ({ path: `/api/photos/${(await photoFor(cell)).id}/thumbnail` }), expect: all(200) },
+  {
+    route: 'DELETE /api/photos/[id]',
+    request: async (cell) => ({ path: `/api/photos/${(await photoFor(cell)).id}` }),
+    expect: { anonymous: 401, reader: 403, contributor: 403, editor: 403, moderator: 200, admin: 200 },
+    check: async (cell, { allowed }) => expectEqual(await Photo.count({ where: { id: photos.get(cell)!.id } }), allowed ? 0 : 1, 'photo kept'),
+  },
+  { route: 'GET /api/export/trials', request: async () => ({ path: '/api/export/trials?format=json' }), expect: all(200) },
+  { route: 'GET /api/export/trials.csv', request: async () => ({ path: '/api/export/trials.csv' }), expect: all(200) },
+  { route: 'GET /api/export/trials.json', request: async () => ({ path: '/api/export/trials.json' }), expect: all(200) },
+  { route: 'GET /api/feedstocks/[slug]/export', request: async () => ({ path: '/api/feedstocks/banana-peel/export?format=csv' }), expect: all(200) },
+  { route: 'GET /api/feedstocks/[slug]/export.csv', request: async () => ({ path: '/api/feedstocks/banana-peel/export.csv' }), expect: all(200) },
+  { route: 'GET /api/feedstocks/[slug]/export.json', request: async () => ({ path: '/api/feedstocks/banana-peel/export.json' }), expect: all(200) },
 ];
 
 export const ACTION_ROWS: ActionRow[] = [
@@ -353,7 +409,81 @@ export const ACTION_ROWS: ActionRow[] = [
     fields: async () => ({ units: 'imperial' }),
     expect: all('ok'),
   },
+  // --- Trial forms.
+  {
+    action: 'app/trials/actions.ts#createTrialAction',
+    fields: async () => trialForm(await trialBody()),
+    expect: { anonymous: 'unauthenticated', reader: 'forbidden', contributor: 'ok', editor: 'ok', moderator: 'ok', admin: 'ok' },
+  },
+  {
+    action: 'app/trials/actions.ts#updateTrialAction',
+    fields: async (cell) => {
+      const t = await trialFor(cell);
+      return { ...trialForm(await trialBody(t.feedstockId)), trialId: String(t.id), version: String(t.version), notes: `Corrected by ${cell.who}.` };
+    },
+    expect: { anonymous: 'unauthenticated', reader: 'forbidden', contributor: 'forbidden', editor: 'forbidden', moderator: 'ok', admin: 'ok' },
+  },
+  {
+    action: 'app/trials/actions.ts#addCheckInAction',
+    fields: async (cell) => ({ trialId: String((await trialFor(cell)).id), observedOn: '2026-10-09', wormActivity: 'many', shareRemainingPct: '40', smell: 'none', moisture: 'damp' }),
+    expect: { anonymous: 'unauthenticated', reader: 'forbidden', contributor: 'forbidden', editor: 'forbidden', moderator: 'ok', admin: 'ok' },
+    check: async (cell, { allowed }) => expectEqual(await CheckIn.count({ where: { trialId: trials.get(cell)!.id } }), allowed ? 1 : 0, 'check-ins'),
+  },
+  {
+    action: 'app/trials/actions.ts#closeTrialAction',
+    fields: async (cell) => ({ trialId: String((await trialFor(cell)).id), status: 'abandoned', reason: 'Bed flooded.' }),
+    expect: { anonymous: 'unauthenticated', reader: 'forbidden', contributor: 'forbidden', editor: 'forbidden', moderator: 'ok', admin: 'ok' },
+    check: async (cell, { allowed }) => expectEqual((await Trial.findByPk(trials.get(cell)!.id))!.status, allowed ? 'abandoned' : 'running', 'trial status'),
+  },
 ];
+
+/** Trials and photos made by a row's request (owned by another contributor), for its check. */
+const trials = new WeakMap<Cell, Trial>();
+const photos = new WeakMap<Cell, Photo>();
+
+/** A valid new-trial body for a fresh feedstock (or the given one). */
+async function trialBody(feedstockId?: number) {
+  return {
+    feedstockId: feedstockId ?? (await freshFeedstock()).id,
+    setting: 'bin',
+    preparation: 'chopped',
+    provenance: 'home-grown',
+    surfaceArea: { amount: 0.25, unit: 'm2' },
+    species: 'eisenia-fetida',
+    dose: { amount: 0.5, unit: 'kg' },
+    region: 'Matrix valley',
+    startDate: '2026-10-01',
+    checkInEveryDays: 7,
+  };
+}
+
+/** The same body as the new-trial form sends it (flat fields). */
+function trialForm(b: Awaited<ReturnType<typeof trialBody>>): Record<string, string> {
+  return {
+    feedstockId: String(b.feedstockId), setting: b.setting, preparation: b.preparation, provenance: b.provenance,
+    'surfaceArea.amount': String(b.surfaceArea.amount), 'surfaceArea.unit': b.surfaceArea.unit, species: b.species,
+    'dose.amount': String(b.dose.amount), 'dose.unit': b.dose.unit, region: b.region, startDate: b.startDate, checkInEveryDays: String(b.checkInEveryDays),
+  };
+}
+
+/** A running trial owned by a new contributor (not the caller). */
+async function trialFor(cell: Cell): Promise<Trial> {
+  const owner = await cell.makeUser({ role: 'contributor' });
+  const { id } = await createTrial({ id: owner.id, role: 'contributor', emailVerified: true, createdAt: owner.createdAt }, await trialBody());
+  const t = (await Trial.findByPk(id))!;
+  trials.set(cell, t);
+  return t;
+}
+
+/** A real uploaded photo on someone else's trial. */
+async function photoFor(cell: Cell): Promise<Photo> {
+  const t = await trialFor(cell);
+  const owner = { id: t.ownerId, role: 'contributor' as const, emailVerified: true };
+  const uploaded = await uploadPhoto(owner, t.id, await smallPng(), { caption: 'matrix' });
+  const p = (await Photo.findByPk(uploaded.id))!;
+  photos.set(cell, p);
+  return p;
+}
 
 /** Wiki rows' own feedstocks, revisions and requests, for their checks. */
 const wikiFeedstocks = new WeakMap<Cell, Feedstock>();

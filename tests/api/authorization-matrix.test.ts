@@ -3,7 +3,7 @@ import os from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { Proposal, RateLimit, User } from '@/db/models';
+import { Proposal, RateLimit, Trial, User } from '@/db/models';
 import { sequelize } from '@/db';
 import { startCaptureServer, type CaptureServer } from '@/lib/mail/capture-server';
 import { listRouteHandlers, listServerActions, listStrayServerFunctions } from '../support/app-inventory';
@@ -57,6 +57,7 @@ describe('authorization matrix', () => {
     const ids = created.map((u) => u.id);
     // Rows the matrix made that point at its users (RESTRICT keys) go first.
     await Proposal.destroy({ where: { authorId: ids } });
+    await Trial.destroy({ where: { ownerId: ids } });
     await User.destroy({ where: { id: ids } });
     await sequelize.close();
   });

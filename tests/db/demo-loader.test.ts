@@ -1,11 +1,12 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/db';
-import { AppMeta } from '@/db/models';
+import { AppMeta, EvidenceAggregate, Photo } from '@/db/models';
+import { getStorage } from '@/lib/storage';
 import { DEMO_MARKER, loadDemoScenario } from '@/db/seeders/load-demo';
 import { DEMO_FEEDSTOCKS, DEMO_PEOPLE, DEMO_TRIALS } from '@/db/seeders/demo-scenario';
 
-const TABLES = ['users', 'feedstocks', 'feedstock_aliases', 'trials', 'check_ins', 'proposals', 'votes', 'published_verdicts',
+const TABLES = ['users', 'feedstocks', 'feedstock_aliases', 'trials', 'check_ins', 'photos', 'proposals', 'votes', 'published_verdicts',
   'verdict_history', 'feedstock_requests', 'evidence_aggregates', 'evidence_verdicts'];
 
 async function counts() {
@@ -29,6 +30,21 @@ describe('demo scenario loader', () => {
     expect(Number(fs.n)).toBe(DEMO_FEEDSTOCKS.length);
     const [us] = await sequelize.query<{ n: number }>('SELECT COUNT(*) AS n FROM users WHERE is_demo = 1', { type: QueryTypes.SELECT });
     expect(Number(us.n)).toBe(DEMO_PEOPLE.length);
+  });
+
+  it('gave each demo trial its placeholder photos, stored through the storage interface and seen by the evidence', async () => {
+    const photos = await Photo.findAll({ order: [['id', 'ASC']] });
+    const demo = photos.filter((p) => p.storageKey.startsWith('demo/'));
+    expect(demo.length).toBe(DEMO_TRIALS.reduce((n, t) => n + t.photoCount, 0));
+    const storage = getStorage();
+    for (const p of [demo[0], demo[demo.length - 1]]) {
+      expect((await storage.get(p.storageKey))?.contentType).toBe('image/jpeg');
+      expect((await storage.get(p.thumbKey))?.contentType).toBe('image/webp');
+    }
+    // Certainty counts trials with photos: the stored aggregates see them.
+    const groups = await EvidenceAggregate.findAll({ attributes: ['result'] });
+    const withPhotos = groups.reduce((n, g) => n + (g.result as { counts: { withPhotos: number } }).counts.withPhotos, 0);
+    expect(withPhotos).toBeGreaterThan(0);
   });
 
   it('adds nothing when run again, even twice at once', async () => {

@@ -9,12 +9,13 @@ import { freePort } from '../../db/server/mariadb.mjs';
  * server action that redirects can fetch the next page from itself) and
  * `baseUrl` is its address.
  */
-export async function startNextHandler({ listen = false }: { listen?: boolean } = {}): Promise<{
+export async function startNextHandler({ listen = false, port: fixedPort }: { listen?: boolean; port?: number } = {}): Promise<{
   server: http.Server;
   baseUrl: string | null;
   close: () => Promise<void>;
 }> {
-  const port = listen ? await freePort() : undefined;
+  // `port`: the caller listens there itself (Next.js still needs to know its own address).
+  const port = fixedPort ?? (listen ? await freePort() : undefined);
   const app = next({ dev: false, dir: process.cwd(), hostname: 'localhost', port, quiet: true });
   await app.prepare();
   const handle = app.getRequestHandler();

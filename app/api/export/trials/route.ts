@@ -1,0 +1,8 @@
+import { exportResponse } from '@/lib/http/export-response';
+
+export const dynamic = 'force-dynamic';
+
+/** Every trial (or ?table=check-ins) as ?format=csv or json (default), CC BY-SA 4.0. */
+export async function GET(request: Request) {
+  return exportResponse(request, {});
+}
