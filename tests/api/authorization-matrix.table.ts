@@ -254,7 +254,7 @@ export const ROUTE_ROWS: RouteRow[] = [
   {
     route: 'DELETE /api/photos/[id]',
     request: async (cell) => ({ path: `/api/photos/${(await photoFor(cell)).id}` }),
-    expect: { anonymous: 401, reader: 403, contributor: 403, editor: 403, moderator: 200, admin: 200 },
+    expect: { anonymous: 401, reader: 403, contributor: 403, editor: 403, moderator: 204, admin: 204 },
     check: async (cell, { allowed }) => expectEqual(await Photo.count({ where: { id: photos.get(cell)!.id } }), allowed ? 0 : 1, 'photo kept'),
   },
   { route: 'GET /api/export/trials', request: async () => ({ path: '/api/export/trials?format=json' }), expect: all(200) },

@@ -20,10 +20,10 @@ export async function startNextHandler({ listen = false, port: fixedPort }: { li
   await app.prepare();
   const handle = app.getRequestHandler();
   const server = http.createServer((req, res) => handle(req, res));
-  if (port) await new Promise<void>((resolve, reject) => server.once('error', reject).listen(port, '127.0.0.1', () => resolve()));
+  if (listen && port) await new Promise<void>((resolve, reject) => server.once('error', reject).listen(port, '127.0.0.1', () => resolve()));
   return {
     server,
-    baseUrl: port ? `http://127.0.0.1:${port}` : null,
+    baseUrl: listen && port ? `http://127.0.0.1:${port}` : null,
     close: async () => {
       await new Promise<void>((r) => server.close(() => r()));
       await app.close?.();
