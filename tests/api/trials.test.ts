@@ -237,8 +237,9 @@ describe('trial pages', () => {
     expect(page.text).toContain('Share of the dose remaining and worm activity by day');
     expect(page.text).toContain('role="img"');
     const fresh = await request(app.server).get('/trials/new');
-    expect(fresh.status).toBe(200);
-    expect(fresh.text).toContain('Sign in to log a trial');
+    // A private page: proxy.ts sends a visitor to sign in first, and back after.
+    expect(fresh.status).toBe(307);
+    expect(fresh.headers.location).toContain('/signin?callbackUrl=%2Ftrials%2Fnew');
     // A missing trial shows the not-found page marked noindex. Its status is 200, not 404: the root
     // app/loading.tsx makes every page stream, and Next.js sends 200 for a streamed notFound()
     // (documented; vercel/next.js#45801). The JSON API answers a real 404 (above).

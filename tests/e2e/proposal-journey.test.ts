@@ -98,7 +98,7 @@ describe('proposal journey (browser)', () => {
     await m.page.goto(proposalUrl);
     await m.page.getByLabel('Note for the author and the history').fill('Two consistent trials and three agreeing votes.');
     await m.page.getByRole('button', { name: 'Approve and publish' }).click();
-    await m.page.getByText('Approved and published.').waitFor();
+    // The page refreshes itself after the decision: the status reads approved.
     await m.page.getByText(/Status:\s*approved/).waitFor();
 
     // 4. The feedstock page shows the new published verdict and its history.
