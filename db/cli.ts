@@ -1,6 +1,6 @@
 /**
  * Database commands, run by `npm start` / `npm test` and by hand:
- *   migrate | migrate-down-all | seed-demo | recompute
+ *   migrate | migrate-down-all | seed-demo | recompute | digest
  * Run with `node --conditions=react-server --import tsx db/cli.ts <command>`
  * (the npm scripts `db:migrate`, `db:seed`, `recompute` do this).
  */
@@ -32,8 +32,15 @@ async function main(command: string | undefined) {
       for (const c of report.changes) console.log(`  ${c.slug} (${c.setting}): ${c.from ?? 'none'} → ${c.to}`);
       break;
     }
+    case 'digest': {
+      // The weekly digest now, whatever the schedule; the outbox worker sends the mails it queues.
+      const { runWeeklyDigest } = await import('@/lib/services/digests');
+      const r = await runWeeklyDigest(new Date());
+      console.log(`weekly digest: ${r.digests} mail(s) queued covering ${r.items} update(s)${r.cancelled ? `; ${r.cancelled} cancelled (unsubscribed)` : ''}`);
+      break;
+    }
     default:
-      console.error('usage: db/cli.ts migrate|migrate-down-all|seed-demo|recompute');
+      console.error('usage: db/cli.ts migrate|migrate-down-all|seed-demo|recompute|digest');
       process.exitCode = 2;
   }
 }

@@ -193,6 +193,8 @@ export async function decideProposal(
 
     const previous = await PublishedVerdict.findAll({ where: { feedstockId: feedstock.id }, transaction });
     const prevBySetting = new Map(previous.map((p) => [p.setting, p]));
+    // Read before the updates below: update() changes these instances in place.
+    const prevVerdict = new Map(previous.map((p) => [p.setting, p.verdict]));
     for (const s of proposal.settings) {
       const prev = prevBySetting.get(s.setting);
       if (prev) {
@@ -209,7 +211,7 @@ export async function decideProposal(
       proposal.settings.map((s) => ({
         feedstockId: feedstock.id,
         setting: s.setting,
-        previousVerdict: prevBySetting.get(s.setting)?.verdict ?? null,
+        previousVerdict: prevVerdict.get(s.setting) ?? null,
         verdict: s.verdict,
         ceilingKgM2: s.ceilingKgM2,
         cautions: s.cautions,
@@ -224,7 +226,7 @@ export async function decideProposal(
     await hook?.('history', transaction);
     const cited = await ProposalTrial.count({ where: { proposalId: proposal.id }, transaction });
     const changes = proposal.settings.map((s) => {
-      const from = prevBySetting.get(s.setting)?.verdict;
+      const from = prevVerdict.get(s.setting);
       return `${from ? `${VERDICT_WORDS[from]} → ` : ''}${VERDICT_WORDS[s.verdict]} in ${SETTING_WORDS[s.setting]}`;
     });
     await queueFeedstockEvent(transaction, {
