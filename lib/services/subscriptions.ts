@@ -1,10 +1,10 @@
 import 'server-only';
 import { randomBytes } from 'node:crypto';
-import { UniqueConstraintError, type Transaction } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '@/db';
 import { Feedstock, OutboxMessage, Subscription, User } from '@/db/models';
 import { getEnv } from '@/lib/env';
-import { InvalidInputError, NotFoundError, UnavailableError } from '@/lib/errors';
+import { ConflictError, InvalidInputError, NotFoundError, UnavailableError } from '@/lib/errors';
 import { composeConfirmationMail } from '@/lib/mail/templates';
 import { sendMail } from '@/lib/mail/transport';
 import { authorize, authorizeUser, type Actor } from '@/lib/policies';
@@ -38,13 +38,34 @@ export async function loadScope(feedstockId: number | null, transaction?: Transa
   return { feedstockId: f.id, name: f.name, slug: f.slug };
 }
 
-/** Runs `fn` again once when two requests created the same (scope, address) row at the same moment. */
-async function retryOnDuplicate<T>(fn: () => Promise<T>): Promise<T> {
-  try {
-    return await fn();
-  } catch (err) {
-    if (err instanceof UniqueConstraintError) return fn();
-    throw err;
+/**
+ * Runs `fn` on the (scope, address) subscription row, locked, in one
+ * transaction; the row is created bare (unconfirmed, no token) first if it
+ * is missing. The create is its own statement (INSERT IGNORE on the unique
+ * scope key), so concurrent clicks never both insert, and the locked read
+ * that follows finds an existing row — no gap locks, no deadlock between
+ * "look, then insert" transactions. A deadlock reported anyway is retried.
+ */
+async function withSubscriptionRow<T>(scope: SubscriptionScope, email: string, mode: SubscriptionMode, fn: (sub: Subscription, transaction: Transaction) => Promise<T>): Promise<T> {
+  await sequelize.query(
+    'INSERT IGNORE INTO subscriptions (feedstock_id, email, mode, created_at, updated_at) VALUES (?, ?, ?, UTC_TIMESTAMP(3), UTC_TIMESTAMP(3))',
+    { replacements: [scope.feedstockId, email, mode] },
+  );
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await sequelize.transaction(async (transaction) => {
+        const [row] = await sequelize.query<{ id: number }>('SELECT id FROM subscriptions WHERE scope_key = ? AND email = ? FOR UPDATE', {
+          replacements: [scope.feedstockId ?? 0, email],
+          type: QueryTypes.SELECT,
+          transaction,
+        });
+        if (!row) throw new ConflictError('That subscription changed meanwhile; please try again.');
+        return fn((await Subscription.findByPk(row.id, { transaction }))!, transaction);
+      });
+    } catch (err) {
+      const deadlock = (err as { parent?: { errno?: number } }).parent?.errno === 1213;
+      if (!deadlock || attempt >= 3) throw err;
+    }
   }
 }
 
@@ -88,38 +109,25 @@ export async function subscribe(actor: Actor, raw: unknown, { clientIp = 'unknow
 
 async function followNow(actor: NonNullable<Actor>, scope: SubscriptionScope, mode: SubscriptionMode): Promise<SubscribeResult> {
   const email = normaliseEmail(actor.email!);
-  await retryOnDuplicate(() =>
-    sequelize.transaction(async (transaction) => {
-      const now = new Date();
-      const existing = await Subscription.findOne({ where: { feedstockId: scope.feedstockId, email }, lock: transaction.LOCK.UPDATE, transaction });
-      if (existing) {
-        const active = !!existing.confirmedAt && !existing.unsubscribedAt;
-        await existing.update(
-          { userId: actor.id, mode, confirmedAt: active ? existing.confirmedAt : now, unsubscribedAt: null, confirmTokenHash: null, confirmSentAt: null },
-          { transaction },
-        );
-      } else {
-        await Subscription.create({ feedstockId: scope.feedstockId, userId: actor.id, email, mode, confirmedAt: now }, { transaction });
-      }
-    }),
-  );
+  await withSubscriptionRow(scope, email, mode, async (sub, transaction) => {
+    const active = !!sub.confirmedAt && !sub.unsubscribedAt;
+    await sub.update(
+      { userId: actor.id, mode, confirmedAt: active ? sub.confirmedAt : new Date(), unsubscribedAt: null, confirmTokenHash: null, confirmSentAt: null },
+      { transaction },
+    );
+  });
   return { status: 'following', email, scope, mode };
 }
 
 async function requestConfirmation(email: string, scope: SubscriptionScope, mode: SubscriptionMode, clientIp: string): Promise<SubscribeResult> {
   await enforceSubscribeMailLimits({ email, clientIp });
   const token = randomBytes(32).toString('base64url');
-  const send = await retryOnDuplicate(() =>
-    sequelize.transaction(async (transaction) => {
-      const now = new Date();
-      const existing = await Subscription.findOne({ where: { feedstockId: scope.feedstockId, email }, lock: transaction.LOCK.UPDATE, transaction });
-      // Already following: change nothing (a stranger must not switch someone's mode) and send nothing.
-      if (existing?.confirmedAt && !existing.unsubscribedAt) return false;
-      if (existing) await existing.update({ mode, confirmTokenHash: hashConfirmToken(token), confirmSentAt: now }, { transaction });
-      else await Subscription.create({ feedstockId: scope.feedstockId, userId: null, email, mode, confirmTokenHash: hashConfirmToken(token), confirmSentAt: now }, { transaction });
-      return true;
-    }),
-  );
+  const send = await withSubscriptionRow(scope, email, mode, async (sub, transaction) => {
+    // Already following: change nothing (a stranger must not switch someone's mode) and send nothing.
+    if (sub.confirmedAt && !sub.unsubscribedAt) return false;
+    await sub.update({ mode, confirmTokenHash: hashConfirmToken(token), confirmSentAt: new Date() }, { transaction });
+    return true;
+  });
   if (send) {
     const confirmUrl = `${getEnv().AUTH_URL.replace(/\/$/, '')}/subscriptions/confirm?token=${token}`;
     try {
