@@ -5,6 +5,7 @@ import { Feedstock, OutboxMessage, PublishedVerdict, Subscription, User, Verdict
 import { drainOutbox, processOutboxBatch } from '@/lib/mail/outbox-worker';
 import { runWeeklyDigest } from '@/lib/services/digests';
 import { createProposal, decideProposal } from '@/lib/services/proposals';
+import { createTrial } from '@/lib/services/trials';
 import { buildFeedstock, buildUser } from '../support/factories';
 import {
   actorOf,
@@ -250,6 +251,74 @@ describe('update mail through the outbox', () => {
       expect(mails).toHaveLength(5);
       expect(new Set(mails.map((m) => m.messageId)).size).toBe(5);
     }
+  });
+
+  it('tells followers of a newly linked trial in the same transaction as the trial, without its region or notes', async () => {
+    const f = await newFeedstock('Apple cores test');
+    const s = await follow(f, { email: testEmail('trials') });
+    const input = {
+      feedstockId: f.id,
+      setting: 'bed',
+      preparation: 'chopped',
+      provenance: 'home-grown',
+      surfaceArea: { amount: 2, unit: 'm2' },
+      species: 'eisenia-fetida',
+      dose: { amount: 6, unit: 'kg' },
+      region: 'Lower Marsh district',
+      startDate: '2026-01-10',
+      notes: 'Behind 4 Mill Road.',
+    };
+    // A refused trial (bad input) stores nothing, outbox included.
+    await expect(createTrial(actorOf(author), { ...input, dose: { amount: -1, unit: 'kg' } })).rejects.toThrow();
+    expect(await OutboxMessage.count({ where: { recipient: s.email } })).toBe(0);
+    const trial = await createTrial(actorOf(author), input);
+    expect(await OutboxMessage.count({ where: { recipient: s.email, kind: 'trial-linked' } })).toBe(1);
+    await drainOutbox(worker());
+    const [mail] = mailsTo(capture.dir, s.email);
+    expect(mail.subject).toBe(`${f.name}: new feeding trial`);
+    expect(mail.text).toContain(`What changed: Trial ${trial.id}: chopped apple cores test in an open bed, 3 kg/m² at once.`);
+    expect(mail.text).toContain(`${BASE}/trials/${trial.id}`);
+    for (const secret of ['Lower Marsh', 'Mill Road', author.email!]) expect(`${mail.text}${mail.html}`).not.toContain(secret);
+    await sequelize.query('DELETE FROM evidence_aggregates WHERE feedstock_id = ?', { replacements: [f.id] });
+    await sequelize.query('DELETE FROM evidence_verdicts WHERE feedstock_id = ?', { replacements: [f.id] });
+  });
+
+  it('sends check-in reminders (no unsubscribe headers) and page-edit mail written by the other services', async () => {
+    const f = await newFeedstock('Banana peel test');
+    const owner = author;
+    const s = await follow(f, { email: testEmail('edits') });
+    // The rows as lib/services/reminders.ts and the page-revision service write them (same transaction as their change).
+    await OutboxMessage.bulkCreate([
+      {
+        kind: 'check-in-due',
+        recipient: owner.email!,
+        subscriptionId: null,
+        feedstockId: f.id,
+        dedupeKey: `check-in-due:test-${f.id}:2026-05-31`,
+        payload: { trialId: 77, path: '/trials/77', dueDate: '2026-05-31', checkInEveryDays: 7, feedstockName: f.name, feedstockSlug: f.slug },
+      },
+      {
+        kind: 'page-edited',
+        recipient: s.email,
+        subscriptionId: s.id,
+        feedstockId: f.id,
+        dedupeKey: `page-edited:test-${f.id}:${s.id}`,
+        payload: { feedstockId: f.id, slug: f.slug, name: f.name, revisionId: 1, version: 3, editSummary: 'wax note', change: `The page text of ${f.name} was edited: wax note.`, path: `/feedstocks/${f.slug}/history` },
+      },
+    ]);
+    await drainOutbox(worker());
+    const [reminder] = mailsTo(capture.dir, owner.email!).filter((m) => m.subject.startsWith('Check-in due'));
+    expect(reminder.subject).toBe(`Check-in due: your ${f.name.toLowerCase()} trial`);
+    expect(reminder.text).toContain(`${BASE}/trials/77`);
+    expect(reminder.text).toContain('You get this because you run trial 77 on Trialbed and chose a check-in every 7 days');
+    // A personal reminder, not list mail: no List-Unsubscribe headers.
+    expect(headerValues(reminder, 'List-Unsubscribe')).toEqual([]);
+    const [edit] = mailsTo(capture.dir, s.email);
+    expect(edit.subject).toBe(`${f.name}: page text edited`);
+    expect(edit.text).toContain(`What changed: The page text of ${f.name} was edited: wax note.`);
+    expect(edit.text).toContain(`${BASE}/feedstocks/${f.slug}/history`);
+    expect(headerValues(edit, 'List-Unsubscribe-Post')).toEqual(['List-Unsubscribe=One-Click']);
+    await OutboxMessage.destroy({ where: { recipient: owner.email! } });
   });
 
   it('gives up after the last attempt and records why', async () => {
