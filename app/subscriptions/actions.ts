@@ -74,7 +74,7 @@ export async function setSubscriptionMode(_prev: ActionState, formData: FormData
 export async function stopSubscription(_prev: ActionState, formData: FormData): Promise<ActionState> {
   try {
     const r = await endSubscription(await getActor(), { subscriptionId: field(formData, 'subscriptionId') });
-    revalidatePath('/account');
+    // No revalidation: the row stays on screen with this message (the page is rendered fresh on the next visit).
     return { ok: true, message: `Stopped: no more mail about ${r.scope.name}.` };
   } catch (err) {
     return toActionState(err);

@@ -30,7 +30,8 @@ export default async function FollowFeedstockPage({ params }: Params) {
             ← {f.name}
           </Link>
         </p>
-        <h1 className="text-4xl">Follow {f.name}</h1>
+        <h1 className="text-4xl">Keep up with {f.name}</h1>
+        <p>By e-mail — each change as it happens, or a weekly digest — or in a feed reader.</p>
       </header>
       <SubscribePanel feedstockId={f.id} feedstockSlug={f.slug} feedstockName={f.name} />
     </div>
