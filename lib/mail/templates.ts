@@ -211,8 +211,7 @@ ${body}
 </body></html>`;
 }
 
-function eventHtml(e: EventDescription, headingTag: 'h1' | 'h3'): string {
-  const heading = e.feedstockName ? `${e.feedstockName}: ${e.headline}` : capitalise(e.headline);
+function eventHtml(e: EventDescription, headingTag: 'h1' | 'h3', heading = e.feedstockName ? `${e.feedstockName}: ${e.headline}` : capitalise(e.headline)): string {
   return `<${headingTag} style="font-size:${headingTag === 'h1' ? 22 : 17}px;margin:16px 0 8px">${escapeHtml(heading)}</${headingTag}>
 <p><strong>What changed:</strong> ${escapeHtml(e.what)}</p>
 ${e.why ? `<p><strong>Why:</strong> ${escapeHtml(e.why)}</p>` : ''}
@@ -263,7 +262,7 @@ export function composeDigestMail(events: EventDescription[], footer: Footer & {
     for (const e of list) {
       const when = e.at ? `${shortDay.format(new Date(e.at))}: ` : '';
       text.push(`* ${when}${capitalise(e.headline)}`, ...eventText(e).map((l) => `  ${l}`), '');
-      html += eventHtml({ ...e, feedstockName: null, headline: `${when}${e.headline}` }, 'h3');
+      html += eventHtml(e, 'h3', `${when}${capitalise(e.headline)}`);
     }
   }
   text.push(...footerText(footer));
