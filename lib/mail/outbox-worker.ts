@@ -200,8 +200,15 @@ export async function processOutboxBatch(options: WorkerOptions = {}): Promise<B
 const sleep = (ms: number, signal?: AbortSignal) =>
   new Promise<void>((resolveSleep) => {
     if (signal?.aborted) return resolveSleep();
-    const t = setTimeout(resolveSleep, ms);
-    signal?.addEventListener('abort', () => (clearTimeout(t), resolveSleep()), { once: true });
+    const onAbort = () => {
+      clearTimeout(t);
+      resolveSleep();
+    };
+    const t = setTimeout(() => {
+      signal?.removeEventListener('abort', onAbort);
+      resolveSleep();
+    }, ms);
+    signal?.addEventListener('abort', onAbort, { once: true });
   });
 
 /**

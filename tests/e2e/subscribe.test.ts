@@ -110,7 +110,7 @@ describe('following a feedstock by e-mail in a browser', () => {
     const mails = listCapturedMail(capture.dir, { to: email }).reverse();
     expect(mails.map((m) => m.subject)).toEqual([`Confirm: follow ${f.name} on Trialbed`, `${f.name}: verdict proposal opened`, `${f.name}: new verdict published`]);
     const update = mails[2];
-    expect(update.text).toContain(`What changed: Keep out → Small amounts only in open beds, after proposal ${id} citing 0 trials.`);
+    expect(update.text).toContain(`What changed: Keep out → Small amounts only in open beds, after proposal ${id}.`);
     expect(update.text).toContain(`${app.url}/feedstocks/${f.slug}`);
     expect(update.text).toContain(`You get this because you follow ${f.name} on Trialbed`);
     expect(headerValues(update, 'List-Unsubscribe-Post')).toEqual(['List-Unsubscribe=One-Click']);

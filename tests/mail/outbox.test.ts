@@ -147,7 +147,7 @@ describe('update mail through the outbox', () => {
     expect(more).toEqual([]);
     expect(digest.subject).toBe(`Your week on Trialbed: 3 updates about ${f.name} and ${g.name}`);
     expect(digest.text).toContain(`Proposal ${p1.id} suggests: Small amounts only in open beds.`);
-    expect(digest.text).toContain(`What changed: Keep out → Small amounts only in open beds, after proposal ${p1.id} citing 0 trials.`);
+    expect(digest.text).toContain(`What changed: Keep out → Small amounts only in open beds, after proposal ${p1.id}.`);
     expect(digest.text).toContain(`Proposal ${p2.id} suggests`);
     expect(digest.text).toContain(`${BASE}/feedstocks/${f.slug}`);
     expect(digest.text).toContain(`You get this weekly digest because you follow ${f.name} and ${g.name} on Trialbed.`);
