@@ -14,7 +14,8 @@
  *   'sending'; when its lock expires the row is sent again — with the same
  *   Message-ID (<outbox-ID@host>), so the copy is recognisable as a duplicate
  *   and mail systems that de-duplicate by Message-ID drop it.
- * - Runs the weekly digest on its schedule (DIGEST_EVERY_HOURS).
+ * - Runs the weekly digest on its schedule (DIGEST_EVERY_HOURS), and then
+ *   forgets addresses that never confirmed (after 30 days).
  *
  * `npm start` runs it next to the app; on its own:
  *   node --conditions=react-server --import tsx lib/mail/outbox-worker.ts            # keep running
@@ -28,6 +29,7 @@ import { Feedstock, Subscription, type OutboxMessage } from '@/db/models';
 import { getEnv } from '@/lib/env';
 import { claimDueMessages, getOutboxState, markAttemptFailed, markCancelled, markSent, type ClaimedMessage } from '@/lib/services/outbox';
 import { runScheduledDigest, runWeeklyDigest, type DigestPayload } from '@/lib/services/digests';
+import { purgeUnconfirmedSubscriptions, UNCONFIRMED_KEEP_DAYS } from '@/lib/services/subscriptions';
 import { composeDigestMail, composeUpdateMail, describeEvent, type MailFeedstock, type MailReason } from './templates';
 import { createMailTransport } from './transport';
 
@@ -45,6 +47,8 @@ export type WorkerOptions = {
   secret?: string;
   from?: string;
   batchSize?: number;
+  /** How many mails of a batch are in flight at once (SMTP round trips, not CPU, bound the rate). */
+  concurrency?: number;
   /** How long a claim holds a row; a worker that dies releases it when this runs out. */
   lockMs?: number;
   maxAttempts?: number;
@@ -64,6 +68,7 @@ function resolve(o: WorkerOptions): Resolved {
     secret: o.secret ?? env.AUTH_SECRET,
     from: o.from ?? env.MAIL_FROM,
     batchSize: o.batchSize ?? 20,
+    concurrency: Math.max(1, o.concurrency ?? 4),
     lockMs: o.lockMs ?? 5 * 60_000,
     maxAttempts: o.maxAttempts ?? env.MAIL_MAX_ATTEMPTS,
     retryBaseMs: o.retryBaseMs ?? env.MAIL_RETRY_BASE_SECONDS * 1000,
@@ -157,13 +162,13 @@ const mask = (email: string) => email.replace(/^(.).*@/, '$1…@');
 
 export type BatchResult = { claimed: number; sent: number; retried: number; failed: number; cancelled: number };
 
-/** Claims one batch of due rows and sends them, one by one. A throw from `afterSend` propagates (a simulated crash). */
+/** Claims one batch of due rows and sends them, `concurrency` at a time. A throw from `afterSend` propagates (a simulated crash). */
 export async function processOutboxBatch(options: WorkerOptions = {}): Promise<BatchResult> {
   const o = resolve(options);
   const result: BatchResult = { claimed: 0, sent: 0, retried: 0, failed: 0, cancelled: 0 };
   const claimed = await claimDueMessages({ limit: o.batchSize, lockMs: o.lockMs });
   result.claimed = claimed.length;
-  for (const c of claimed) {
+  const deliver = async (c: ClaimedMessage) => {
     let rendered: RenderedMail;
     try {
       rendered = await renderOutboxMessage(c.message, o);
@@ -172,12 +177,12 @@ export async function processOutboxBatch(options: WorkerOptions = {}): Promise<B
       if (status === 'failed') result.failed++;
       else result.retried++;
       o.log(`outbox ${c.message.id} (${c.message.kind}): could not build the mail: ${describe(err)}`);
-      continue;
+      return;
     }
     if ('cancel' in rendered) {
       await markCancelled(c, rendered.cancel);
       result.cancelled++;
-      continue;
+      return;
     }
     try {
       const info = await o.transport.sendMail(rendered.mail);
@@ -188,12 +193,19 @@ export async function processOutboxBatch(options: WorkerOptions = {}): Promise<B
       if (status === 'failed') result.failed++;
       else result.retried++;
       o.log(`outbox ${c.message.id} (${c.message.kind}) to ${mask(c.message.recipient)}: attempt ${c.attempt} failed (${describe(err)}); ${status === 'failed' ? 'giving up' : 'will retry'}`);
-      continue;
+      return;
     }
     await o.afterSend?.(c);
     if (await markSent(c)) result.sent++;
     else o.log(`outbox ${c.message.id}: sent, but another worker had taken it over (lock expired)`);
-  }
+  };
+  // A few mails in flight at once, each row on its own: one slow or failing recipient holds up no other.
+  const queue = [...claimed];
+  await Promise.all(
+    Array.from({ length: Math.min(o.concurrency, queue.length) }, async () => {
+      for (let c = queue.shift(); c; c = queue.shift()) await deliver(c);
+    }),
+  );
   return result;
 }
 
@@ -246,7 +258,11 @@ export function startOutboxWorker(options: WorkerOptions & { pollMs?: number; di
       let busy = false;
       try {
         const digest = await runScheduledDigest(new Date(), digestEveryHours);
-        if (digest) o.log(`weekly digest: ${digest.digests} mail(s) covering ${digest.items} update(s)`);
+        if (digest) {
+          o.log(`weekly digest: ${digest.digests} mail(s) covering ${digest.items} update(s)`);
+          const purged = await purgeUnconfirmedSubscriptions();
+          if (purged) o.log(`forgot ${purged} address(es) that never confirmed within ${UNCONFIRMED_KEEP_DAYS} days`);
+        }
         const r = await processOutboxBatch({ ...options, ...o });
         busy = r.claimed > 0;
         if (r.claimed) o.log(`sent ${r.sent}, retrying ${r.retried}, failed ${r.failed}, cancelled ${r.cancelled}`);

@@ -21,7 +21,7 @@ export function getMailTransport(): Transporter {
 export function createMailTransport({ pool = false }: { pool?: boolean } = {}): Transporter {
   const env = getEnv();
   return nodemailer.createTransport({
-    ...(pool ? { pool: true, maxConnections: 2, maxMessages: 100 } : {}),
+    ...(pool ? { pool: true, maxConnections: 4, maxMessages: 100 } : {}),
     host: env.SMTP_HOST,
     port: env.SMTP_PORT,
     secure: env.SMTP_SECURE === '1',

@@ -1,7 +1,7 @@
 import 'server-only';
 import { randomBytes } from 'node:crypto';
 import { QueryTypes, type Transaction } from 'sequelize';
-import { sequelize } from '@/db';
+import { execWrite, sequelize } from '@/db';
 import { Feedstock, OutboxMessage, Subscription, User } from '@/db/models';
 import { getEnv } from '@/lib/env';
 import { ConflictError, InvalidInputError, NotFoundError, UnavailableError } from '@/lib/errors';
@@ -222,4 +222,20 @@ export async function unsubscribeWithToken(raw: unknown): Promise<UnsubscribeOut
     }
     return { scopes: await scopeNames(active.length ? active : subs, transaction), maskedEmail: maskEmail(email), alreadyUnsubscribed: active.length === 0 };
   });
+}
+
+/** How long an address that never confirmed is kept. */
+export const UNCONFIRMED_KEEP_DAYS = 30;
+
+/**
+ * Forgets addresses that never confirmed: unconfirmed subscriptions without
+ * an account whose last confirmation link went out more than `days` ago. The
+ * worker runs it with the weekly digest. Returns how many rows went.
+ */
+export async function purgeUnconfirmedSubscriptions(days = UNCONFIRMED_KEEP_DAYS, now: Date = new Date()): Promise<number> {
+  const cutoff = new Date(now.getTime() - days * 86_400_000);
+  return execWrite(
+    'DELETE FROM subscriptions WHERE confirmed_at IS NULL AND user_id IS NULL AND created_at < ? AND (confirm_sent_at IS NULL OR confirm_sent_at < ?)',
+    { replacements: [cutoff, cutoff] },
+  );
 }

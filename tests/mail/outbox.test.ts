@@ -3,7 +3,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sequelize } from '@/db';
 import { Feedstock, OutboxMessage, PublishedVerdict, Subscription, User, VerdictHistory } from '@/db/models';
 import { drainOutbox, processOutboxBatch } from '@/lib/mail/outbox-worker';
-import { runWeeklyDigest } from '@/lib/services/digests';
+import { DIGEST_CLOCK_KEY, runScheduledDigest, runWeeklyDigest } from '@/lib/services/digests';
+import { purgeUnconfirmedSubscriptions } from '@/lib/services/subscriptions';
 import { createProposal, decideProposal } from '@/lib/services/proposals';
 import { createTrial } from '@/lib/services/trials';
 import { buildFeedstock, buildUser } from '../support/factories';
@@ -319,6 +320,29 @@ describe('update mail through the outbox', () => {
     expect(edit.text).toContain(`${BASE}/feedstocks/${f.slug}/history`);
     expect(headerValues(edit, 'List-Unsubscribe-Post')).toEqual(['List-Unsubscribe=One-Click']);
     await OutboxMessage.destroy({ where: { recipient: owner.email! } });
+  });
+
+  it('runs the digest on its schedule once per period, and forgets addresses that never confirmed', async () => {
+    await sequelize.query('DELETE FROM app_meta WHERE `key` = ?', { replacements: [DIGEST_CLOCK_KEY] });
+    const t0 = new Date();
+    expect(await runScheduledDigest(t0, 168)).toBeNull(); // the first call starts the clock
+    expect(await runScheduledDigest(new Date(t0.getTime() + 167 * 3_600_000), 168)).toBeNull();
+    const due = new Date(t0.getTime() + 168 * 3_600_000);
+    // Two workers at the same moment: exactly one runs it.
+    const both = await Promise.all([runScheduledDigest(due, 168), runScheduledDigest(due, 168)]);
+    expect(both.filter((r) => r !== null)).toHaveLength(1);
+    await sequelize.query('DELETE FROM app_meta WHERE `key` = ?', { replacements: [DIGEST_CLOCK_KEY] });
+
+    const f = await newFeedstock();
+    const old = await follow(f, { email: testEmail('never-confirmed'), confirmed: false });
+    const recent = await follow(f, { email: testEmail('just-asked'), confirmed: false });
+    const kept = await follow(f, { email: testEmail('confirmed-long-ago') });
+    const longAgo = new Date(Date.now() - 40 * DAY);
+    await sequelize.query('UPDATE subscriptions SET created_at = ?, confirm_sent_at = ? WHERE id IN (?)', { replacements: [longAgo, longAgo, [old.id, kept.id]] });
+    expect(await purgeUnconfirmedSubscriptions()).toBeGreaterThanOrEqual(1);
+    expect(await Subscription.findByPk(old.id)).toBeNull();
+    expect(await Subscription.findByPk(recent.id)).not.toBeNull();
+    expect(await Subscription.findByPk(kept.id)).not.toBeNull();
   });
 
   it('gives up after the last attempt and records why', async () => {
