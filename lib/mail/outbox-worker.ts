@@ -27,6 +27,7 @@ import type { SendMailOptions, Transporter } from 'nodemailer';
 import { sequelize } from '@/db';
 import { Feedstock, Subscription, type OutboxMessage } from '@/db/models';
 import { getEnv } from '@/lib/env';
+import { SITE_SCOPE_NAME } from '@/lib/queries/subscriptions';
 import { claimDueMessages, getOutboxState, markAttemptFailed, markCancelled, markSent, type ClaimedMessage } from '@/lib/services/outbox';
 import { runScheduledDigest, runWeeklyDigest, type DigestPayload } from '@/lib/services/digests';
 import { purgeUnconfirmedSubscriptions, UNCONFIRMED_KEEP_DAYS } from '@/lib/services/subscriptions';
@@ -38,6 +39,7 @@ let workerTransport: Transporter | null = null;
 const defaultTransport = () => (workerTransport ??= createMailTransport({ pool: true }));
 import { createUnsubscribeToken, listUnsubscribeHeaders } from './unsubscribe-token';
 
+/** Settings of the worker functions; each defaults from the environment (SMTP_*, AUTH_URL, AUTH_SECRET, MAIL_*). */
 export type WorkerOptions = {
   /** Where mail goes; default the SMTP_* transport. */
   transport?: Transporter;
@@ -58,12 +60,13 @@ export type WorkerOptions = {
   afterSend?: (claimed: ClaimedMessage) => Promise<void>;
 };
 
-type Resolved = Required<Omit<WorkerOptions, 'afterSend'>> & Pick<WorkerOptions, 'afterSend'>;
+type Resolved = Required<Omit<WorkerOptions, 'afterSend' | 'transport'>> & Pick<WorkerOptions, 'afterSend' | 'transport'>;
 
+/** The options with their defaults from the environment; the transport stays as given (built only when sending). */
 function resolve(o: WorkerOptions): Resolved {
   const env = getEnv();
   return {
-    transport: o.transport ?? defaultTransport(),
+    transport: o.transport,
     baseUrl: (o.baseUrl ?? env.AUTH_URL).replace(/\/$/, ''),
     secret: o.secret ?? env.AUTH_SECRET,
     from: o.from ?? env.MAIL_FROM,
@@ -99,7 +102,7 @@ async function feedstocksById(ids: (number | null | undefined)[]): Promise<Map<n
  * subscription was stopped come back as `{ cancel }`.
  */
 export async function renderOutboxMessage(message: OutboxMessage, options: WorkerOptions = {}): Promise<RenderedMail> {
-  const o = resolve({ ...options, transport: options.transport ?? ({} as Transporter) });
+  const o = resolve(options);
   const host = new URL(o.baseUrl).hostname;
   const headers: Record<string, string | { prepared: boolean; value: string }> = {
     'X-Trialbed-Outbox-Id': String(message.id),
@@ -123,7 +126,7 @@ export async function renderOutboxMessage(message: OutboxMessage, options: Worke
     const feedstocks = await feedstocksById([...payload.items.map((i) => i.feedstockId), ...subs.map((s) => s.feedstockId)]);
     const events = payload.items.map((i) => describeEvent(i.kind, i.payload, { baseUrl: o.baseUrl, feedstock: i.feedstockId ? (feedstocks.get(i.feedstockId) ?? null) : null, at: i.at }));
     const scopes = subs.length
-      ? subs.map((s) => (s.feedstockId === null ? 'every feedstock' : (feedstocks.get(s.feedstockId)?.name ?? 'a feedstock')))
+      ? subs.map((s) => (s.feedstockId === null ? SITE_SCOPE_NAME : (feedstocks.get(s.feedstockId)?.name ?? 'a feedstock')))
       : events.map((e) => e.feedstockName ?? 'Trialbed');
     const token = createUnsubscribeToken(o.secret, { scope: 'd', id: message.id, email: message.recipient });
     const unsubscribeUrl = listHeaders(token, `Trialbed weekly digest <weekly-digest.${host}>`);
@@ -160,11 +163,13 @@ function isPermanent(err: unknown): boolean {
 const describe = (err: unknown) => (err instanceof Error ? `${(err as { code?: string }).code ? `${(err as { code?: string }).code}: ` : ''}${err.message}` : String(err));
 const mask = (email: string) => email.replace(/^(.).*@/, '$1…@');
 
+/** What one batch (or a drain) did, counted per outcome. */
 export type BatchResult = { claimed: number; sent: number; retried: number; failed: number; cancelled: number };
 
 /** Claims one batch of due rows and sends them, `concurrency` at a time. A throw from `afterSend` propagates (a simulated crash). */
 export async function processOutboxBatch(options: WorkerOptions = {}): Promise<BatchResult> {
   const o = resolve(options);
+  const transport = o.transport ?? defaultTransport();
   const result: BatchResult = { claimed: 0, sent: 0, retried: 0, failed: 0, cancelled: 0 };
   const claimed = await claimDueMessages({ limit: o.batchSize, lockMs: o.lockMs });
   result.claimed = claimed.length;
@@ -185,7 +190,7 @@ export async function processOutboxBatch(options: WorkerOptions = {}): Promise<B
       return;
     }
     try {
-      const info = await o.transport.sendMail(rendered.mail);
+      const info = await transport.sendMail(rendered.mail);
       const refused = [...(info.rejected ?? [])].filter(Boolean);
       if (refused.length) throw Object.assign(new Error('The mail server refused the recipient.'), { code: 'EENVELOPE', responseCode: 550 });
     } catch (err) {
@@ -263,7 +268,7 @@ export function startOutboxWorker(options: WorkerOptions & { pollMs?: number; di
           const purged = await purgeUnconfirmedSubscriptions();
           if (purged) o.log(`forgot ${purged} address(es) that never confirmed within ${UNCONFIRMED_KEEP_DAYS} days`);
         }
-        const r = await processOutboxBatch({ ...options, ...o });
+        const r = await processOutboxBatch(o);
         busy = r.claimed > 0;
         if (r.claimed) o.log(`sent ${r.sent}, retrying ${r.retried}, failed ${r.failed}, cancelled ${r.cancelled}`);
       } catch (err) {

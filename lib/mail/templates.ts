@@ -39,6 +39,7 @@ export type EventDescription = {
   at: string | null;
 };
 
+/** A finished mail: subject, plain text, and HTML with the same content. */
 export type ComposedMail = { subject: string; text: string; html: string };
 
 const str = (v: unknown): string | undefined => (typeof v === 'string' && v.trim() ? v.trim() : undefined);
@@ -176,6 +177,7 @@ function joinNames(names: string[]): string {
   return `${n.slice(0, -1).join(', ')} and ${n[n.length - 1]}`;
 }
 
+/** Escapes text for HTML (element content and quoted attributes). */
 export const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 
 const INK = '#2B2119';

@@ -16,6 +16,7 @@ import { createHmac, timingSafeEqual } from 'node:crypto';
  */
 
 export type UnsubscribeScope = 's' | 'd';
+/** What a token points at: a subscription (`s`) or a digest mail (`d`), by id. */
 export type UnsubscribeTarget = { scope: UnsubscribeScope; id: number };
 
 const TOKEN = /^([sd])([1-9][0-9]{0,17})\.([A-Za-z0-9_-]{43})$/;

@@ -32,6 +32,7 @@ export type FeedEntryDTO = {
   feedstock: { slug: string; name: string };
 };
 
+/** A feed: its feedstock (null for the site), newest entries first, and its newest entry's time. */
 export type FeedDTO = { feedstock: { id: number; slug: string; name: string } | null; entries: FeedEntryDTO[]; updated: string | null };
 
 /** How many entries a feed carries (newest first). */

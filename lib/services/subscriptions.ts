@@ -78,6 +78,7 @@ async function cancelQueuedMail(subscriptionIds: number[], transaction: Transact
   );
 }
 
+/** The outcome of `subscribe`. */
 export type SubscribeResult = {
   /** 'following': counts now (signed-in readers). 'confirmation-sent': a visitor must open the mailed link first. */
   status: 'following' | 'confirmation-sent';

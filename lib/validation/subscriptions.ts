@@ -1,11 +1,13 @@
 import { z } from 'zod';
 import { EmailSchema, normaliseEmail } from './accounts';
 
+/** Addresses are compared lower-cased and NFKC-normalised, as at sign-in. */
 export { normaliseEmail };
 
 /** Shared zod schemas for subscriptions: the subscribe panel, the account page, the unsubscribe route. */
 
 export const SUBSCRIPTION_MODES = ['immediate', 'digest'] as const;
+/** Each update as it happens, or a weekly digest. */
 export type SubscriptionMode = (typeof SUBSCRIPTION_MODES)[number];
 
 const mode = z.enum(SUBSCRIPTION_MODES, { message: 'Choose each update or a weekly digest.' });
@@ -24,6 +26,7 @@ export const SubscribeSchema = z.object({
   /** Visitors only; an empty field counts as none (the service then asks for it). */
   email: z.preprocess((v) => (typeof v === 'string' && !v.trim() ? undefined : v), EmailSchema.optional()),
 });
+/** Parsed subscribe input. */
 export type SubscribeInput = z.infer<typeof SubscribeSchema>;
 
 /** A confirmation or raw random token as mailed: 32 random bytes, base64url. */
@@ -33,7 +36,9 @@ export const ConfirmSubscriptionSchema = z.object({
 
 const subscriptionId = z.coerce.number({ message: 'Which subscription?' }).int().positive('Which subscription?').max(2 ** 31);
 
+/** Account page: switch one subscription's mode. */
 export const ChangeModeSchema = z.object({ subscriptionId, mode });
+/** Account page: stop one subscription. */
 export const EndSubscriptionSchema = z.object({ subscriptionId });
 
 /** An unsubscribe token from a mail's link (see lib/mail/unsubscribe-token.ts); checked for shape here, for its MAC by the service. */
