@@ -5,6 +5,7 @@ import { sequelize } from '@/db';
 import { Feedstock, OutboxMessage, Subscription, User } from '@/db/models';
 import { getEnv } from '@/lib/env';
 import { drainOutbox } from '@/lib/mail/outbox-worker';
+import { runWeeklyDigest } from '@/lib/services/digests';
 import { createUnsubscribeToken, listUnsubscribeHeaders } from '@/lib/mail/unsubscribe-token';
 import { createProposal } from '@/lib/services/proposals';
 import { buildFeedstock, buildUser } from '../support/factories';
@@ -70,6 +71,7 @@ describe('one-click unsubscribe (RFC 8058)', () => {
       .post(path)
       .set('Content-Type', 'application/x-www-form-urlencoded')
       .set('Origin', 'https://mail.example.net')
+      .set('Sec-Fetch-Site', 'cross-site')
       .send('List-Unsubscribe=One-Click');
     expect(res.status).toBeGreaterThanOrEqual(200);
     expect(res.status).toBeLessThan(300);
@@ -104,6 +106,30 @@ describe('one-click unsubscribe (RFC 8058)', () => {
     expect(row!.status).toBe('cancelled');
     await drainOutbox(worker());
     expect(mailsTo(capture.dir, s.email)).toEqual([]);
+  });
+
+  it('the one-click link of a weekly digest stops every digest subscription of that address, and nothing else', async () => {
+    const f = await buildFeedstock();
+    const g = await buildFeedstock();
+    const h = await buildFeedstock();
+    feedstocks.push(f, g, h);
+    const email = testEmail('digest-reader');
+    const weeklyF = await buildSubscription(f, { email, mode: 'digest' });
+    const weeklyG = await buildSubscription(g, { email, mode: 'digest' });
+    const instantH = await buildSubscription(h, { email, mode: 'immediate' });
+    subscriptions.push(weeklyF, weeklyG, instantH);
+    await open(f);
+    await open(g);
+    await runWeeklyDigest(new Date());
+    await drainOutbox(worker());
+    const digest = mailsTo(capture.dir, email).find((m) => m.subject.startsWith('Your week on Trialbed'))!;
+    expect(headerValues(digest, 'List-Unsubscribe')[0]).toMatch(/token=d\d+\./);
+    const res = await request(app.server).post(unsubscribePathOf(email)).type('form').send('List-Unsubscribe=One-Click');
+    expect(res.status).toBe(200);
+    expect(res.headers.location).toBeUndefined();
+    expect((await weeklyF.reload()).unsubscribedAt).toBeInstanceOf(Date);
+    expect((await weeklyG.reload()).unsubscribedAt).toBeInstanceOf(Date);
+    expect((await instantH.reload()).unsubscribedAt).toBeNull();
   });
 
   it('a GET never unsubscribes: it leads to a confirmation page with a button', async () => {
