@@ -166,7 +166,10 @@ const mask = (email: string) => email.replace(/^(.).*@/, '$1…@');
 /** What one batch (or a drain) did, counted per outcome. */
 export type BatchResult = { claimed: number; sent: number; retried: number; failed: number; cancelled: number };
 
-/** Claims one batch of due rows and sends them, `concurrency` at a time. A throw from `afterSend` propagates (a simulated crash). */
+/**
+ * Claims one batch of due rows and sends them: `concurrency` recipients at a
+ * time, each recipient's rows in order. A throw from `afterSend` propagates (a simulated crash).
+ */
 export async function processOutboxBatch(options: WorkerOptions = {}): Promise<BatchResult> {
   const o = resolve(options);
   const transport = o.transport ?? defaultTransport();
@@ -204,11 +207,17 @@ export async function processOutboxBatch(options: WorkerOptions = {}): Promise<B
     if (await markSent(c)) result.sent++;
     else o.log(`outbox ${c.message.id}: sent, but another worker had taken it over (lock expired)`);
   };
-  // A few mails in flight at once, each row on its own: one slow or failing recipient holds up no other.
-  const queue = [...claimed];
+  // A few recipients at once; each recipient's mail one after the other, oldest first, so a
+  // reader gets "proposal opened" before "verdict decided". One slow recipient holds up no other.
+  const byRecipient = new Map<string, ClaimedMessage[]>();
+  for (const c of [...claimed].sort((a, b) => a.message.id - b.message.id)) {
+    const key = c.message.recipient.toLowerCase();
+    byRecipient.set(key, [...(byRecipient.get(key) ?? []), c]);
+  }
+  const queue = [...byRecipient.values()];
   await Promise.all(
     Array.from({ length: Math.min(o.concurrency, queue.length) }, async () => {
-      for (let c = queue.shift(); c; c = queue.shift()) await deliver(c);
+      for (let group = queue.shift(); group; group = queue.shift()) for (const c of group) await deliver(c);
     }),
   );
   return result;
