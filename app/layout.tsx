@@ -18,6 +18,8 @@ export const metadata: Metadata = {
     'Can composting worms eat it — how much at once, prepared how, and what to watch for. Verdicts for worm bins, flow-through systems and open beds, worked out from feeding trials that keepers log.',
   applicationName: 'Trialbed',
   icons: { icon: [{ url: '/trialbed-mark.svg', type: 'image/svg+xml' }] },
+  // Feed readers find the site's Atom feed from any page.
+  alternates: { types: { 'application/atom+xml': [{ url: '/feed.xml', title: 'Trialbed — updates on every feedstock' }] } },
 };
 
 export const viewport: Viewport = {

@@ -1,6 +1,6 @@
 /**
  * Database commands, run by `npm start` / `npm test` and by hand:
- *   migrate | migrate-down-all | seed-demo | recompute | queue-reminders
+ *   migrate | migrate-down-all | seed-demo | recompute | queue-reminders | digest
  * Run with `node --conditions=react-server --import tsx db/cli.ts <command>`
  * (the npm scripts `db:migrate`, `db:seed`, `recompute` do this).
  */
@@ -39,8 +39,15 @@ async function main(command: string | undefined) {
       console.log(`${r.due} trial(s) with a check-in due; ${r.queued} reminder(s) queued in the outbox`);
       break;
     }
+    case 'digest': {
+      // The weekly digest now, whatever the schedule; the outbox worker sends the mails it queues.
+      const { runWeeklyDigest } = await import('@/lib/services/digests');
+      const r = await runWeeklyDigest(new Date());
+      console.log(`weekly digest: ${r.digests} mail(s) queued covering ${r.items} update(s)${r.cancelled ? `; ${r.cancelled} cancelled (unsubscribed)` : ''}`);
+      break;
+    }
     default:
-      console.error('usage: db/cli.ts migrate|migrate-down-all|seed-demo|recompute|queue-reminders');
+      console.error('usage: db/cli.ts migrate|migrate-down-all|seed-demo|recompute|queue-reminders|digest');
       process.exitCode = 2;
   }
 }

@@ -26,6 +26,18 @@ const EnvSchema = z.object({
   SMTP_PASSWORD: z.string().default(''),
   SMTP_SECURE: z.enum(['0', '1']).default('0'),
   MAIL_FROM: z.string().default('Trialbed <no-reply@trialbed.invalid>'),
+  /** Auth.js's secret; also signs unsubscribe links (HMAC). `npm start` generates one. */
+  AUTH_SECRET: z.string().default(''),
+  /** How often the outbox worker looks for due mail when it found none (milliseconds). */
+  MAIL_POLL_MS: z.coerce.number().int().min(100).max(600_000).default(5_000),
+  /** Attempts per mail before it is marked failed (retries back off exponentially). */
+  MAIL_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(50).default(12),
+  /** The first retry's delay in seconds; each later one doubles, up to 6 hours. */
+  MAIL_RETRY_BASE_SECONDS: z.coerce.number().min(0.01).max(3_600).default(30),
+  /** Hours between weekly digests (168 = a week); the worker sends them on this schedule. */
+  DIGEST_EVERY_HOURS: z.coerce.number().min(1).max(24 * 31).default(168),
+  /** 0: `npm start` does not start the outbox worker (run `npm run mail:worker` elsewhere). */
+  MAIL_WORKER: z.enum(['0', '1']).default('1'),
   /** Where photos go: `local` (DATA_DIR/uploads) or an S3-compatible bucket. */
   STORAGE_DRIVER: z.enum(['local', 's3']).default('local'),
   /** S3-compatible endpoint; empty for AWS itself (then S3_REGION picks the endpoint). */

@@ -68,6 +68,13 @@ export class RateLimitedError extends AppError {
   }
 }
 
+/** 503: a service we depend on (the mail server) is not answering; try again shortly. */
+export class UnavailableError extends AppError {
+  constructor(message = 'That is not possible just now; please try again in a minute.') {
+    super(message, 503, 'unavailable');
+  }
+}
+
 /** Turns a ZodError into field messages keyed by dotted path ("dose.amount"). */
 export function zodFieldErrors(err: ZodError): FieldErrors {
   const out: FieldErrors = {};

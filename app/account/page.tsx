@@ -5,9 +5,11 @@ import { LicenceForm } from '@/components/account/licence-form';
 import { ROLE_DESCRIPTIONS } from '@/components/account/role-descriptions';
 import { SignOutButton } from '@/components/account/sign-out-button';
 import { UnitsForm } from '@/components/account/units-form';
+import { SubscriptionList } from '@/components/subscription/subscription-list';
 import { Badge, buttonClasses, Card } from '@/components/ui';
 import { getActor } from '@/lib/auth/actor';
 import { getAccount } from '@/lib/queries/accounts';
+import { listMySubscriptions } from '@/lib/queries/subscriptions';
 import { CONTRIBUTION_LICENCE } from '@/lib/services/accounts';
 
 export const metadata: Metadata = { title: 'Your account' };
@@ -18,7 +20,7 @@ const dateFormat = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'lo
 export default async function AccountPage() {
   const actor = await getActor();
   if (!actor) redirect('/signin?callbackUrl=/account');
-  const account = await getAccount(actor);
+  const [account, subscriptions] = await Promise.all([getAccount(actor), listMySubscriptions(actor)]);
 
   return (
     <div className="mx-auto max-w-prose space-y-8">
@@ -92,10 +94,9 @@ export default async function AccountPage() {
         <h2 id="subscriptions-heading" className="text-2xl">
           Subscriptions
         </h2>
-        <p>
-          Subscriptions come in a later version of Trialbed. Then you will be able to follow a feedstock from its page and get an
-          e-mail — straight away or as a weekly digest — when its verdict is decided, a trial is linked, a proposal opens or its
-          page is edited. You have no subscriptions yet, and we send you no mail except the sign-in links you ask for.
+        <SubscriptionList subscriptions={subscriptions.subscriptions} />
+        <p className="text-sm text-ink-muted">
+          Mail goes to {account.email}. Every mail also has a one-click unsubscribe link that works without signing in.
         </p>
       </Card>
 

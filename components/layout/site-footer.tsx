@@ -22,6 +22,9 @@ export function SiteFooter() {
           <p>
             <Link href="/about">About Trialbed</Link> — how verdicts are made and what they mean.
           </p>
+          <p>
+            Keep up: <Link href="/subscribe">follow by e-mail</Link> or the <a href="/feed.xml">Atom feed</a>.
+          </p>
         </div>
       </div>
     </footer>

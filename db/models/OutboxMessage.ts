@@ -2,6 +2,15 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 import { sequelize } from '../index';
 import { json } from './_columns';
 
+/**
+ * Where an outbox row is: 'pending' (due at next_attempt_at), 'sending'
+ * (claimed by a worker until locked_until), 'sent', 'failed' (gave up),
+ * 'digest' (waits for the weekly digest), 'digested' (folded into digest_id),
+ * 'cancelled' (the reader unsubscribed before it went out).
+ */
+export const OUTBOX_STATUSES = ['pending', 'sending', 'sent', 'failed', 'digest', 'digested', 'cancelled'] as const;
+export type OutboxStatus = (typeof OUTBOX_STATUSES)[number];
+
 /** A mail to send, written in the same transaction as the change that caused it. */
 export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCreationAttributes<OutboxMessage>> {
   declare id: CreationOptional<number>;
@@ -11,12 +20,14 @@ export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCr
   declare feedstockId: number | null;
   declare payload: Record<string, unknown>;
   declare dedupeKey: string | null;
-  declare status: CreationOptional<'pending' | 'sending' | 'sent' | 'failed' | 'digest'>;
+  declare status: CreationOptional<OutboxStatus>;
   declare attempts: CreationOptional<number>;
   declare nextAttemptAt: CreationOptional<Date>;
   declare lockedUntil: CreationOptional<Date | null>;
   declare lastError: CreationOptional<string | null>;
   declare sentAt: CreationOptional<Date | null>;
+  /** For a 'digested' row: the weekly digest mail (another outbox row) that carried it. */
+  declare digestId: CreationOptional<number | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -30,12 +41,13 @@ OutboxMessage.init(
     feedstockId: DataTypes.INTEGER.UNSIGNED,
     payload: json('payload'),
     dedupeKey: { type: DataTypes.STRING(191), unique: true },
-    status: { type: DataTypes.ENUM('pending', 'sending', 'sent', 'failed', 'digest'), allowNull: false, defaultValue: 'pending' },
+    status: { type: DataTypes.ENUM(...OUTBOX_STATUSES), allowNull: false, defaultValue: 'pending' },
     attempts: { type: DataTypes.SMALLINT.UNSIGNED, allowNull: false, defaultValue: 0 },
     nextAttemptAt: { type: DataTypes.DATE(3), allowNull: false, defaultValue: DataTypes.NOW },
     lockedUntil: DataTypes.DATE(3),
     lastError: DataTypes.TEXT,
     sentAt: DataTypes.DATE(3),
+    digestId: DataTypes.BIGINT.UNSIGNED,
     createdAt: DataTypes.DATE(3),
     updatedAt: DataTypes.DATE(3),
   },

@@ -1,7 +1,11 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../index';
 
-/** A reader following a feedstock (or the whole site when feedstockId is null) by mail. */
+/**
+ * A reader following a feedstock (or the whole site when feedstockId is null)
+ * by mail. It counts only once confirmed (confirmedAt set, unsubscribedAt
+ * null); only a SHA-256 hash of the confirmation token is stored.
+ */
 export class Subscription extends Model<InferAttributes<Subscription>, InferCreationAttributes<Subscription>> {
   declare id: CreationOptional<number>;
   declare feedstockId: number | null;
@@ -10,6 +14,8 @@ export class Subscription extends Model<InferAttributes<Subscription>, InferCrea
   declare mode: CreationOptional<'immediate' | 'digest'>;
   declare confirmedAt: CreationOptional<Date | null>;
   declare confirmTokenHash: CreationOptional<string | null>;
+  /** When the confirmation link was mailed; links expire (lib/services/subscriptions.ts). */
+  declare confirmSentAt: CreationOptional<Date | null>;
   declare unsubscribedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -24,6 +30,7 @@ Subscription.init(
     mode: { type: DataTypes.ENUM('immediate', 'digest'), allowNull: false, defaultValue: 'immediate' },
     confirmedAt: DataTypes.DATE(3),
     confirmTokenHash: DataTypes.STRING(64),
+    confirmSentAt: DataTypes.DATE(3),
     unsubscribedAt: DataTypes.DATE(3),
     createdAt: DataTypes.DATE(3),
     updatedAt: DataTypes.DATE(3),

@@ -2,7 +2,8 @@
 // clean clone to a running app (or a finished test run) with nothing done by hand.
 //
 //   start: install what is missing, start the private MariaDB (data in .data/,
-//          kept between runs), migrate, load the demo once, build, serve on
+//          kept between runs), migrate, load the demo once, build, start the
+//          capture SMTP server and the outbox worker, serve on
 //          http://localhost:PORT (bound to 127.0.0.1). Ctrl-C stops it all.
 //   test:  the same on a throwaway data directory, then type-check, lint and
 //          every test; the data directory is removed at the end.
@@ -169,6 +170,31 @@ function startCaptureSmtp(childEnv) {
   });
 }
 
+/**
+ * `npm start` only: the outbox worker (lib/mail/outbox-worker.ts), which
+ * sends the mail services write to the outbox — update mail, check-in
+ * reminders, the weekly digest — through SMTP_* (the capture server locally).
+ * MAIL_WORKER=0 leaves it out (run `npm run mail:worker` elsewhere). If it
+ * stops unexpectedly it is started again after a pause; mail waits in the
+ * outbox meanwhile, so nothing is lost.
+ */
+function startOutboxWorker(childEnv) {
+  if (childEnv.MAIL_WORKER === '0') {
+    log('MAIL_WORKER=0: no outbox worker here (mail waits in the outbox)');
+    return;
+  }
+  const [cmd, args] = tsx('lib/mail/outbox-worker.ts');
+  const launch = () => {
+    log('outbox worker: sends update mail, reminders and weekly digests');
+    spawnTracked(cmd, args, childEnv, { name: 'outbox worker' }).then((r) => {
+      if (shuttingDown) return;
+      log(`the outbox worker stopped (exit ${r.code}); starting it again in 5 s`);
+      setTimeout(() => !shuttingDown && launch(), 5_000).unref();
+    });
+  };
+  launch();
+}
+
 async function main() {
   ensureSystemPackages();
   ensureNodeModules();
@@ -214,6 +240,7 @@ async function main() {
   if (mode === 'start') {
     if (env.SKIP_BUILD !== '1') await step('building the app (next build)', ['npx', ['next', 'build']], { ...childEnv, NODE_ENV: 'production' });
     startCaptureSmtp(childEnv);
+    startOutboxWorker(childEnv);
     log(`serving on http://localhost:${appPort} (bound to 127.0.0.1); Ctrl-C stops everything`);
     const r = await spawnTracked('npx', ['next', 'start', '-H', '127.0.0.1', '-p', String(appPort)], { ...childEnv, NODE_ENV: 'production' });
     if (!shuttingDown) {

@@ -10,7 +10,7 @@
  */
 import { simpleParser, type AddressObject } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
-import { mailboxDir, saveCapturedMail, type CapturedMail } from './mailbox';
+import { MAILBOX_KEEP, mailboxDir, saveCapturedMail, type CapturedMail } from './mailbox';
 
 export type CaptureServer = {
   port: number;
@@ -23,8 +23,8 @@ export type CaptureServer = {
 const addresses = (a: AddressObject | AddressObject[] | undefined): string[] =>
   (Array.isArray(a) ? a : a ? [a] : []).flatMap((o) => o.value.map((v) => v.address ?? '').filter(Boolean));
 
-/** Starts the capture server on 127.0.0.1:`port` (0 picks a free one), storing into `dir`. */
-export async function startCaptureServer({ port = 0, dir = mailboxDir() }: { port?: number; dir?: string } = {}): Promise<CaptureServer> {
+/** Starts the capture server on 127.0.0.1:`port` (0 picks a free one), storing into `dir` and keeping the newest `keep` messages. */
+export async function startCaptureServer({ port = 0, dir = mailboxDir(), keep = MAILBOX_KEEP }: { port?: number; dir?: string; keep?: number } = {}): Promise<CaptureServer> {
   const waiters: { to?: string; resolve: (m: CapturedMail) => void }[] = [];
   const server = new SMTPServer({
     authOptional: true,
@@ -33,6 +33,8 @@ export async function startCaptureServer({ port = 0, dir = mailboxDir() }: { por
     size: 5 * 1024 * 1024,
     logger: false,
     closeTimeout: 1_000,
+    // Loopback only: a reverse DNS lookup of 127.0.0.1 would only slow every message down.
+    disableReverseLookup: true,
     onAuth(_auth, _session, callback) {
       // Any credentials are fine: a hosted provider's settings can be tried against the capture server.
       callback(null, { user: 'capture' });
@@ -48,7 +50,13 @@ export async function startCaptureServer({ port = 0, dir = mailboxDir() }: { por
             subject: parsed.subject ?? '',
             text: parsed.text ?? '',
             html: typeof parsed.html === 'string' ? parsed.html : null,
-          });
+            messageId: parsed.messageId ?? null,
+            headerLines: (parsed.headerLines ?? []).map((h) => ({
+              key: h.key.toLowerCase(),
+              // The raw line, unfolded: a CRLF before whitespace is removed (RFC 5322 §2.2.3).
+              value: h.line.replace(/\r?\n(?=[ \t])/g, '').replace(/^[^:]*:[ \t]*/, ''),
+            })),
+          }, keep);
           for (const w of [...waiters]) {
             if (!w.to || mail.to.some((t) => t.toLowerCase() === w.to!.toLowerCase())) {
               waiters.splice(waiters.indexOf(w), 1);

@@ -19,7 +19,17 @@ export type CapturedMail = {
   subject: string;
   text: string;
   html: string | null;
+  /** The Message-ID header as sent (`<…@…>`), null when there was none. */
+  messageId?: string | null;
+  /** Every header line in order, unfolded (RFC 5322 §2.2.3), with its name lower-cased. */
+  headerLines?: { key: string; value: string }[];
 };
+
+/** The values of one header (name in any case), in the order they appear; [] when absent. */
+export function headerValues(mail: CapturedMail, name: string): string[] {
+  const key = name.toLowerCase();
+  return (mail.headerLines ?? []).filter((h) => h.key === key).map((h) => h.value);
+}
 
 /** How many messages the mailbox keeps; older ones are removed as new ones arrive. */
 export const MAILBOX_KEEP = 200;
@@ -29,8 +39,8 @@ export function mailboxDir(dataDir = process.env.DATA_DIR ?? '.data'): string {
   return path.resolve(dataDir, 'mailbox');
 }
 
-/** Stores one message atomically (write, then rename) and prunes the oldest beyond MAILBOX_KEEP. */
-export function saveCapturedMail(dir: string, mail: Omit<CapturedMail, 'id'>): CapturedMail {
+/** Stores one message atomically (write, then rename) and prunes the oldest beyond `keep` (default MAILBOX_KEEP). */
+export function saveCapturedMail(dir: string, mail: Omit<CapturedMail, 'id'>, keep = MAILBOX_KEEP): CapturedMail {
   mkdirSync(dir, { recursive: true });
   const id = `${Date.now().toString().padStart(14, '0')}-${randomBytes(4).toString('hex')}`;
   const stored: CapturedMail = { id, ...mail };
@@ -38,7 +48,7 @@ export function saveCapturedMail(dir: string, mail: Omit<CapturedMail, 'id'>): C
   writeFileSync(tmp, JSON.stringify(stored));
   renameSync(tmp, path.join(dir, `${id}.json`));
   const files = messageFiles(dir);
-  for (const f of files.slice(0, Math.max(0, files.length - MAILBOX_KEEP))) rmSync(path.join(dir, f), { force: true });
+  for (const f of files.slice(0, Math.max(0, files.length - keep))) rmSync(path.join(dir, f), { force: true });
   return stored;
 }
 

@@ -9,17 +9,28 @@ let transport: Transporter | null = null;
  * capture server by default, a hosted provider when those are set. Built once.
  */
 export function getMailTransport(): Transporter {
-  if (transport) return transport;
+  transport ??= createMailTransport();
+  return transport;
+}
+
+/**
+ * A new SMTP transport from SMTP_*; with `pool`, it keeps a few connections
+ * open between messages (the outbox worker sends many in a row, and a new
+ * connection per message costs more than the message).
+ */
+export function createMailTransport({ pool = false }: { pool?: boolean } = {}): Transporter {
   const env = getEnv();
-  transport = nodemailer.createTransport({
+  return nodemailer.createTransport({
+    ...(pool ? { pool: true, maxConnections: 4, maxMessages: 100 } : {}),
     host: env.SMTP_HOST,
     port: env.SMTP_PORT,
     secure: env.SMTP_SECURE === '1',
     auth: env.SMTP_USER ? { user: env.SMTP_USER, pass: env.SMTP_PASSWORD } : undefined,
     connectionTimeout: 10_000,
     greetingTimeout: 10_000,
+    // A stalled server must not hold a worker's claim for long (lib/mail/outbox-worker.ts locks rows for 5 minutes).
+    socketTimeout: 60_000,
   });
-  return transport;
 }
 
 /**

@@ -46,6 +46,7 @@ export const ACTIONS = [
   'proposal.claim',
   'moderation.hide',
   'review.view',
+  'subscription.create',
   'subscription.manage',
   'account.view',
   'account.update',
@@ -94,7 +95,10 @@ const RULES: Record<Action, (actor: Actor, resource: Resource) => boolean> = {
   'proposal.claim': (a) => atLeast(a, 'editor'),
   'moderation.hide': (a) => atLeast(a, 'moderator'),
   'review.view': (a) => atLeast(a, 'editor'),
-  'subscription.manage': (a) => atLeast(a, 'reader'),
+  // Anyone may ask to follow: visitors by e-mail with double opt-in, readers in one click.
+  'subscription.create': () => true,
+  // One's own subscriptions only (made with the account, or with its confirmed address); no resource: the list of one's own.
+  'subscription.manage': (a, r) => atLeast(a, 'reader') && (r === undefined || isOwner(a, r)),
   'account.view': (a) => atLeast(a, 'reader'),
   'account.update': (a) => atLeast(a, 'reader'),
   // A reader becomes a contributor by accepting the licence once the e-mail is verified.

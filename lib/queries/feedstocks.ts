@@ -3,7 +3,6 @@ import { Op, QueryTypes } from 'sequelize';
 import { sequelize } from '@/db';
 import {
   EvidenceAggregate,
-  VerdictHistory,
   EvidenceVerdict,
   Feedstock,
   FeedstockAlias,
@@ -643,76 +642,3 @@ export async function listFeedstockChoices(): Promise<{ id: number; slug: string
 
 // ---------------------------------------------------------------- feed
 
-/** One entry of a feedstock's update feed. */
-export interface FeedEntryDTO {
-  id: string;
-  kind: 'verdict' | 'page-edit' | 'trial';
-  title: string;
-  summary: string;
-  path: string;
-  date: string;
-}
-
-const SETTING_FEED_WORDS: Record<Setting, string> = { bin: 'enclosed bins', 'flow-through': 'flow-through systems', bed: 'open beds' };
-const PREPARATION_FEED_WORDS: Record<Preparation, string> = {
-  raw: 'raw',
-  chopped: 'chopped',
-  shredded: 'shredded',
-  'frozen-thawed': 'frozen and thawed',
-  cooked: 'cooked',
-  soaked: 'soaked',
-  dried: 'dried',
-  'pre-composted': 'pre-composted',
-  aged: 'aged',
-};
-const VERDICT_FEED_WORDS: Record<Verdict, string> = {
-  feed: 'Feed freely',
-  limit: 'Small amounts only',
-  prepare: 'Prepare first',
-  avoid: 'Keep out',
-  unsettled: 'Not enough evidence',
-};
-
-/**
- * The newest changes to a feedstock, newest first: published-verdict
- * decisions, published page edits and newly logged trials. No names or
- * places beyond the trial's region.
- */
-export async function listFeedstockFeedEntries(id: number, limit = 30): Promise<{ name: string; slug: string; entries: FeedEntryDTO[] } | null> {
-  const f = await Feedstock.findByPk(id, { attributes: ['id', 'slug', 'name', 'mergedIntoId'] });
-  if (!f || f.mergedIntoId) return null;
-  const [history, revisions, trials] = await Promise.all([
-    VerdictHistory.findAll({ where: { feedstockId: id }, order: [['decidedAt', 'DESC'], ['id', 'DESC']], limit }),
-    FeedstockRevision.findAll({ where: { feedstockId: id, status: 'published' }, attributes: ['id', 'baseVersion', 'editSummary', 'reviewedAt', 'createdAt'], order: [['id', 'DESC']], limit }),
-    Trial.findAll({ where: { feedstockId: id }, attributes: ['id', 'setting', 'preparation', 'region', 'createdAt'], order: [['createdAt', 'DESC'], ['id', 'DESC']], limit }),
-  ]);
-  const entries: FeedEntryDTO[] = [
-    ...history.map((h) => ({
-      id: `verdict-${h.id}`,
-      kind: 'verdict' as const,
-      title: `${f.name} in ${SETTING_FEED_WORDS[h.setting]}: ${h.previousVerdict ? `${VERDICT_FEED_WORDS[h.previousVerdict]} → ` : ''}${VERDICT_FEED_WORDS[h.verdict]}`,
-      summary: `${h.previousVerdict ? 'The published verdict changed' : 'First published verdict'}${h.proposalId ? ` after proposal ${h.proposalId}` : ''}. ${h.note}`,
-      path: h.proposalId ? `/proposals/${h.proposalId}` : `/feedstocks/${f.slug}`,
-      date: h.decidedAt.toISOString(),
-    })),
-    ...revisions.map((r) => ({
-      id: `revision-${r.id}`,
-      kind: 'page-edit' as const,
-      title: `${f.name}: page text version ${r.baseVersion + 1}`,
-      summary: r.editSummary || 'The page text was edited.',
-      path: `/feedstocks/${f.slug}/history`,
-      date: (r.reviewedAt ?? r.createdAt).toISOString(),
-    })),
-    ...trials.map((t) => ({
-      id: `trial-${t.id}`,
-      kind: 'trial' as const,
-      title: `${f.name}: new trial in ${SETTING_FEED_WORDS[t.setting]}`,
-      summary: `A trial of ${PREPARATION_FEED_WORDS[t.preparation]} material was logged in ${t.region}.`,
-      path: `/trials/${t.id}`,
-      date: t.createdAt.toISOString(),
-    })),
-  ]
-    .sort((a, b) => b.date.localeCompare(a.date) || a.id.localeCompare(b.id))
-    .slice(0, limit);
-  return { name: f.name, slug: f.slug, entries };
-}

@@ -5,11 +5,16 @@ import { OutboxMessage, Subscription } from '@/db/models';
 /** Kinds of feedstock events subscribers hear about. */
 export type FeedstockEventKind = 'verdict-decided' | 'proposal-opened' | 'trial-linked' | 'page-edited';
 
+/** Every outbox kind the mail templates know (lib/mail/templates.ts). */
+export const OUTBOX_KINDS = ['verdict-decided', 'proposal-opened', 'trial-linked', 'page-edited', 'check-in-due', 'edit-rejected', 'weekly-digest'] as const;
+
 /**
  * Writes one outbox row per confirmed subscriber of the feedstock (and of the
  * whole site) inside the caller's transaction, so mail exists exactly when the
  * change does. Digest subscribers get a row marked 'digest' for the weekly job.
- * `eventId` makes the rows idempotent: the same event never queues twice.
+ * Someone who follows both the feedstock and the whole site gets one row, under
+ * the feedstock's subscription (its mode wins). `eventId` makes the rows
+ * idempotent: the same event never queues twice (unique dedupe key).
  */
 export async function queueFeedstockEvent(
   transaction: Transaction,
@@ -24,8 +29,16 @@ export async function queueFeedstockEvent(
     transaction,
   });
   if (!subs.length) return 0;
+  // One mail per address: the feedstock's own subscription before a whole-site one.
+  const byEmail = new Map<string, Subscription>();
+  for (const s of subs) {
+    const key = s.email.toLowerCase();
+    const held = byEmail.get(key);
+    if (!held || (held.feedstockId === null && s.feedstockId !== null)) byEmail.set(key, s);
+  }
+  const chosen = [...byEmail.values()];
   await OutboxMessage.bulkCreate(
-    subs.map((s) => ({
+    chosen.map((s) => ({
       kind: event.kind,
       recipient: s.email,
       subscriptionId: s.id,
@@ -36,5 +49,5 @@ export async function queueFeedstockEvent(
     })),
     { transaction, ignoreDuplicates: true },
   );
-  return subs.length;
+  return chosen.length;
 }

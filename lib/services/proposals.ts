@@ -239,7 +239,7 @@ export async function decideProposal(
         feedstockName: feedstock.name,
         decision: 'approved',
         note: input.note,
-        summary: `${changes.join('; ')}, after proposal ${proposal.id} citing ${cited} trial${cited === 1 ? '' : 's'}`,
+        summary: `${changes.join('; ')}, after proposal ${proposal.id}${cited ? ` citing ${cited} trial${cited === 1 ? '' : 's'}` : ''}`,
       },
     });
     await hook?.('outbox', transaction);

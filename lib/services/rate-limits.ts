@@ -77,3 +77,27 @@ export async function enforceSignInMailLimits({ email, clientIp }: { email: stri
   // Expired counters are of no use; clear a few now and then.
   if (Math.random() < 0.02) await RateLimit.destroy({ where: { expiresAt: { [Op.lt]: new Date() } }, limit: 500 });
 }
+
+/**
+ * Confirmation mail for visitors who follow a feedstock by e-mail: a few per
+ * address (nobody's inbox can be flooded by strangers), more per client.
+ */
+export const SUBSCRIBE_MAIL_LIMITS = {
+  perAddress: { max: 5, windowSeconds: 60 * 60 },
+  perClient: { max: 30, windowSeconds: 60 * 60 },
+} as const satisfies Record<string, Limit>;
+
+/** Counts one confirmation mail for the address and the client; throws RateLimitedError (429) over either limit. */
+export async function enforceSubscribeMailLimits({ email, clientIp }: { email: string; clientIp: string }): Promise<void> {
+  const address = await hitRateLimit(`subscribe-mail:address:${hash(email)}`, SUBSCRIBE_MAIL_LIMITS.perAddress);
+  if (!address.allowed) {
+    throw new RateLimitedError(
+      `We already sent several confirmation links to this address. Use the newest one, or try again in ${minutes(address.retryAfterSeconds)}.`,
+      address.retryAfterSeconds,
+    );
+  }
+  const client = await hitRateLimit(`subscribe-mail:client:${hash(clientIp)}`, SUBSCRIBE_MAIL_LIMITS.perClient);
+  if (!client.allowed) {
+    throw new RateLimitedError(`Too many subscription requests from your network. Try again in ${minutes(client.retryAfterSeconds)}.`, client.retryAfterSeconds);
+  }
+}

@@ -1,10 +1,11 @@
 import 'server-only';
 import { Op, type Transaction } from 'sequelize';
 import { sequelize } from '@/db';
-import { AuditLog, Feedstock, FeedstockRevision, OutboxMessage, Subscription, User } from '@/db/models';
+import { AuditLog, Feedstock, FeedstockRevision, OutboxMessage, User } from '@/db/models';
 import { ConflictError, InvalidInputError, NotFoundError } from '@/lib/errors';
 import { authorizeUser, can, type Actor } from '@/lib/policies';
 import { diffText } from '@/lib/text-diff';
+import { queueFeedstockEvent } from './notifications';
 import {
   EditReviewSchema,
   PageEditSchema,
@@ -62,35 +63,23 @@ async function conflictMessage(f: Feedstock, baseVersion: number, transaction: T
   );
 }
 
-/** Queues a "page edited" mail for each confirmed subscriber of the feedstock (same transaction). */
+/** Queues a "page edited" mail for each follower of the feedstock or the whole site (same transaction). */
 async function queuePageEditedMail(f: Feedstock, revision: FeedstockRevision, transaction: Transaction): Promise<number> {
-  const subs = await Subscription.findAll({
-    where: { feedstockId: f.id, confirmedAt: { [Op.ne]: null }, unsubscribedAt: null },
-    transaction,
-  });
-  if (!subs.length) return 0;
-  await OutboxMessage.bulkCreate(
-    subs.map((s) => ({
-      kind: 'page-edited',
-      recipient: s.email,
-      subscriptionId: s.id,
+  return queueFeedstockEvent(transaction, {
+    kind: 'page-edited',
+    eventId: `revision-${revision.id}`,
+    feedstockId: f.id,
+    payload: {
       feedstockId: f.id,
-      payload: {
-        feedstockId: f.id,
-        slug: f.slug,
-        name: f.name,
-        revisionId: revision.id,
-        version: f.version,
-        editSummary: revision.editSummary,
-        change: `The page text of ${f.name} was edited${revision.editSummary ? `: ${revision.editSummary}` : ''}.`,
-        path: `/feedstocks/${f.slug}/history`,
-      },
-      dedupeKey: `page-edited:${revision.id}:${s.id}`,
-      status: s.mode === 'digest' ? ('digest' as const) : ('pending' as const),
-    })),
-    { transaction },
-  );
-  return subs.length;
+      slug: f.slug,
+      name: f.name,
+      revisionId: revision.id,
+      version: f.version,
+      editSummary: revision.editSummary,
+      change: `The page text of ${f.name} was edited${revision.editSummary ? `: ${revision.editSummary}` : ''}.`,
+      path: `/feedstocks/${f.slug}/history`,
+    },
+  });
 }
 
 async function publish(

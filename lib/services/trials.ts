@@ -17,10 +17,14 @@ import {
   type TrialUpdateInput,
 } from '@/lib/validation/trials';
 import { loadTrialInputs, recomputeFeedstock } from './evidence';
+import { queueFeedstockEvent } from './notifications';
+
+const SETTING_PHRASES: Record<string, string> = { bin: 'an enclosed bin', 'flow-through': 'a flow-through system', bed: 'an open bed' };
+const formatLoad = (kgM2: number) => `${Number(kgM2.toPrecision(3))} kg/m²`;
 
 /**
- * Logs a new trial for a contributor and recomputes the feedstock's evidence
- * in the same transaction. Throws InvalidInputError (400, field messages) for
+ * Logs a new trial for a contributor, recomputes the feedstock's evidence and
+ * queues 'trial-linked' mail for its subscribers, all in the same transaction. Throws InvalidInputError (400, field messages) for
  * bad input or an unknown feedstock; nothing is stored then.
  */
 export async function createTrial(actor: Actor, raw: unknown): Promise<{ id: number; feedstockId: number; surfaceLoadKgM2: number }> {
@@ -70,6 +74,22 @@ export async function createTrial(actor: Actor, raw: unknown): Promise<{ id: num
     // Pairing is symmetric: the comparison plot points back when it has no partner yet.
     if (paired && paired.pairedTrialId === null) await paired.update({ pairedTrialId: trial.id, version: paired.version + 1 }, { transaction });
     await recomputeFeedstock(feedstock.id, transaction);
+    // Subscribers hear of the new evidence; the row commits with the trial or not at all.
+    // No region, owner or notes in the mail: only what the feed shows too.
+    await queueFeedstockEvent(transaction, {
+      kind: 'trial-linked',
+      eventId: `trial-${trial.id}`,
+      feedstockId: feedstock.id,
+      payload: {
+        trialId: trial.id,
+        feedstockSlug: feedstock.slug,
+        feedstockName: feedstock.name,
+        setting: input.setting,
+        preparation: input.preparation,
+        surfaceLoadKgM2: loads.surfaceLoadKgM2,
+        summary: `Trial ${trial.id}: ${input.preparation} ${feedstock.name.toLowerCase()} in ${SETTING_PHRASES[input.setting]}, ${formatLoad(loads.surfaceLoadKgM2)} at once`,
+      },
+    });
     return { id: trial.id, feedstockId: feedstock.id, surfaceLoadKgM2: loads.surfaceLoadKgM2 };
   });
 }

@@ -1,5 +1,9 @@
+import { randomBytes } from 'node:crypto';
 import { sequelize } from '@/db';
-import { CheckIn, Feedstock, FeedstockRequest, FeedstockRevision, Photo, Proposal, PublishedVerdict, Trial, Vote, type User } from '@/db/models';
+import { CheckIn, Feedstock, FeedstockRequest, FeedstockRevision, Photo, Proposal, PublishedVerdict, Subscription, Trial, Vote, type User } from '@/db/models';
+import { getEnv } from '@/lib/env';
+import { createUnsubscribeToken } from '@/lib/mail/unsubscribe-token';
+import { hashConfirmToken } from '@/lib/queries/subscriptions';
 import { uploadPhoto } from '@/lib/services/photos';
 import { createTrial } from '@/lib/services/trials';
 import { smallPng } from '../support/images';
@@ -263,6 +267,33 @@ export const ROUTE_ROWS: RouteRow[] = [
   { route: 'GET /api/feedstocks/[slug]/export', request: async () => ({ path: '/api/feedstocks/banana-peel/export?format=csv' }), expect: all(200) },
   { route: 'GET /api/feedstocks/[slug]/export.csv', request: async () => ({ path: '/api/feedstocks/banana-peel/export.csv' }), expect: all(200) },
   { route: 'GET /api/feedstocks/[slug]/export.json', request: async () => ({ path: '/api/feedstocks/banana-peel/export.json' }), expect: all(200) },
+  // --- Subscriptions, unsubscribe and feeds (issue 8). Unsubscribing needs no session: the signed token decides.
+  {
+    // Visitors get an empty list; readers and up their own subscriptions.
+    route: 'GET /api/subscriptions',
+    request: async () => ({ path: '/api/subscriptions' }),
+    expect: all(200),
+    check: async (cell, { body }) => expectEqual((body as { signedIn: boolean }).signedIn, cell.who !== 'anonymous', 'signedIn'),
+  },
+  {
+    // A GET never unsubscribes: it sends the person to the confirmation page.
+    route: 'GET /api/unsubscribe',
+    request: async (cell) => ({ path: `/api/unsubscribe?token=${await unsubscribeTokenFor(cell)}` }),
+    expect: all(303),
+    check: async (cell) => expectEqual(!!(await subscriptions.get(cell)!.reload()).unsubscribedAt, false, 'unsubscribed by a GET'),
+  },
+  {
+    // RFC 8058 one-click POST: the same answer whoever sends it (mail clients send no cookies).
+    route: 'POST /api/unsubscribe',
+    request: async (cell) => ({ path: `/api/unsubscribe?token=${await unsubscribeTokenFor(cell)}`, form: { 'List-Unsubscribe': 'One-Click' } }),
+    expect: all(200),
+    check: async (cell) => expectEqual(!!(await subscriptions.get(cell)!.reload()).unsubscribedAt, true, 'unsubscribed'),
+  },
+  {
+    route: 'GET /feed.xml',
+    request: async () => ({ path: '/feed.xml' }),
+    expect: all(200),
+  },
 ];
 
 export const ACTION_ROWS: ActionRow[] = [
@@ -435,6 +466,55 @@ export const ACTION_ROWS: ActionRow[] = [
     expect: { anonymous: 'unauthenticated', reader: 'forbidden', contributor: 'forbidden', editor: 'forbidden', moderator: 'ok', admin: 'ok' },
     check: async (cell, { allowed }) => expectEqual((await Trial.findByPk(trials.get(cell)!.id))!.status, allowed ? 'abandoned' : 'running', 'trial status'),
   },
+  // --- Subscriptions (issue 8)
+  {
+    // Visitors by e-mail (a confirmation link goes out); signed-in people in one click with their own address.
+    action: 'app/subscriptions/actions.ts#subscribeToUpdates',
+    fields: async (cell) => {
+      const f = await freshFeedstock();
+      feedstockOf.set(cell, f.id);
+      return { feedstockId: String(f.id), mode: 'immediate', email: `matrix-follow-${cell.who}-${Date.now()}@example.test` };
+    },
+    expect: all('ok'),
+    check: async (cell) => {
+      const sub = await Subscription.findOne({ where: { feedstockId: feedstockOf.get(cell)! } });
+      expectEqual(!!sub?.confirmedAt, cell.who !== 'anonymous', 'confirmed at once');
+      if (cell.user) expectEqual(sub?.email, cell.user.email, 'address used');
+    },
+  },
+  {
+    // The mailed link proves the address; no session needed.
+    action: 'app/subscriptions/actions.ts#confirmSubscriptionFromLink',
+    fields: async (cell) => {
+      const token = randomBytes(32).toString('base64url');
+      const f = await freshFeedstock();
+      const sub = await Subscription.create({ feedstockId: f.id, email: `matrix-confirm-${cell.who}-${Date.now()}@example.test`, mode: 'digest', confirmTokenHash: hashConfirmToken(token), confirmSentAt: new Date() });
+      subscriptions.set(cell, sub);
+      return { token };
+    },
+    expect: all('ok'),
+    check: async (cell) => expectEqual(!!(await subscriptions.get(cell)!.reload()).confirmedAt, true, 'confirmed'),
+  },
+  {
+    // One's own subscriptions only (the other-owner case is in tests/api/subscriptions.test.ts).
+    action: 'app/subscriptions/actions.ts#setSubscriptionMode',
+    fields: async (cell) => ({ subscriptionId: String((await ownSubscriptionFor(cell)).id), mode: 'digest' }),
+    expect: signedIn('unauthenticated', 'ok'),
+    check: async (cell, { allowed }) => expectEqual((await subscriptions.get(cell)!.reload()).mode, allowed ? 'digest' : 'immediate', 'mode'),
+  },
+  {
+    action: 'app/subscriptions/actions.ts#stopSubscription',
+    fields: async (cell) => ({ subscriptionId: String((await ownSubscriptionFor(cell)).id) }),
+    expect: signedIn('unauthenticated', 'ok'),
+    check: async (cell, { allowed }) => expectEqual(!!(await subscriptions.get(cell)!.reload()).unsubscribedAt, allowed, 'unsubscribed'),
+  },
+  {
+    // The button on /unsubscribe: the signed token decides, whoever presses it.
+    action: 'app/subscriptions/actions.ts#unsubscribeFromLink',
+    fields: async (cell) => ({ token: await unsubscribeTokenFor(cell) }),
+    expect: all('ok'),
+    check: async (cell) => expectEqual(!!(await subscriptions.get(cell)!.reload()).unsubscribedAt, true, 'unsubscribed'),
+  },
 ];
 
 /** Trials and photos made by a row's request (owned by another contributor), for its check. */
@@ -519,4 +599,25 @@ const targets = new WeakMap<Cell, User>();
 
 function expectEqual(actual: unknown, expected: unknown, what: string) {
   if (actual !== expected) throw new Error(`${what}: expected ${String(expected)}, got ${String(actual)}`);
+}
+
+/** Subscriptions and feedstocks made by a row's request, for its check. */
+const subscriptions = new WeakMap<Cell, Subscription>();
+const feedstockOf = new WeakMap<Cell, number>();
+
+/** A confirmed subscription of the caller (or, for anonymous, of another reader) to a fresh feedstock. */
+async function ownSubscriptionFor(cell: Cell): Promise<Subscription> {
+  const owner = cell.user ?? (await cell.makeUser({ role: 'reader' }));
+  const f = await freshFeedstock();
+  const sub = await Subscription.create({ feedstockId: f.id, email: owner.email!, userId: owner.id, mode: 'immediate', confirmedAt: new Date() });
+  subscriptions.set(cell, sub);
+  return sub;
+}
+
+/** A signed unsubscribe token for a fresh confirmed subscription (someone else's: no session is involved). */
+async function unsubscribeTokenFor(cell: Cell): Promise<string> {
+  const f = await freshFeedstock();
+  const sub = await Subscription.create({ feedstockId: f.id, email: `matrix-unsub-${cell.who}-${Date.now()}@example.test`, mode: 'immediate', confirmedAt: new Date() });
+  subscriptions.set(cell, sub);
+  return createUnsubscribeToken(getEnv().AUTH_SECRET, { scope: 's', id: sub.id, email: sub.email });
 }

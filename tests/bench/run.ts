@@ -7,7 +7,7 @@ import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 
-const parts = ['engine.ts', 'http.ts'].map((f) => path.join('tests', 'bench', f)).filter((f) => existsSync(f));
+const parts = ['engine.ts', 'http.ts', 'mail.ts'].map((f) => path.join('tests', 'bench', f)).filter((f) => existsSync(f));
 let failed = 0;
 for (const part of parts) {
   console.log(`\n=== ${part} ===`);

@@ -15,6 +15,7 @@ import {
 } from '@/components/feedstock/sections';
 import { UnitsToggle } from '@/components/feedstock/units-toggle';
 import { PageText } from '@/components/markdown/page-text';
+import { SubscribePanel } from '@/components/subscription/subscribe-panel';
 import { getActor } from '@/lib/auth/actor';
 import { VerdictHistorySection } from '@/components/proposal/verdict-history';
 import { listOpenProposals, listVerdictHistory } from '@/lib/queries/proposals';
@@ -95,6 +96,7 @@ export default async function FeedstockPage({ params }: Props) {
           <p className="m-0 flex flex-wrap gap-x-4 gap-y-1 text-sm">
             <Link href={`/feedstocks/${page.slug}/edit`}>{canEdit ? 'Edit this page' : canSuggest ? 'Suggest an edit' : 'Edit this page'}</Link>
             <Link href={`/feedstocks/${page.slug}/history`}>Page history</Link>
+            <a href={`#subscribe-${page.id}-heading`}>Follow by e-mail</a>
             <a href={`/feedstocks/${page.slug}/feed.xml`}>Updates feed (Atom)</a>
           </p>
         </div>
@@ -191,6 +193,8 @@ export default async function FeedstockPage({ params }: Props) {
         </p>
         <SurvivalCharts settings={page.settings} />
       </section>
+
+      <SubscribePanel feedstockId={page.id} feedstockSlug={page.slug} feedstockName={page.name} />
 
       <RelatedFeedstocks related={page.related} family={page.family} />
 
