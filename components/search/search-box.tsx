@@ -3,7 +3,7 @@
 import { useRouter } from 'next/navigation';
 import { useEffect, useId, useRef, useState, type KeyboardEvent } from 'react';
 import useSWR from 'swr';
-import { VerdictIcon, VERDICT_LABELS, type Verdict } from '@/components/evidence/verdict-badge';
+import { VerdictBadge, type Verdict } from '@/components/evidence/verdict-badge';
 import { cx } from '@/components/ui/class-names';
 
 export type SearchBoxProps = {
@@ -57,18 +57,16 @@ function useDebounced(value: string, ms: number): string {
   return v;
 }
 
-/** Published verdicts of one hit, compact: icon + setting + verdict words. */
+/** Published verdicts of one hit: setting, then the verdict badge (icon and words). */
 function Verdicts({ published }: { published: SearchHitView['published'] }) {
   const settings = SETTINGS.filter((s) => published[s]);
   if (!settings.length) return <span className="text-sm text-ink-muted">No published verdict yet</span>;
   return (
     <span className="flex flex-wrap gap-x-3 gap-y-1 text-sm">
       {settings.map((s) => (
-        <span key={s} className="inline-flex items-center gap-1" data-verdict={published[s]}>
-          <VerdictIcon verdict={published[s]!} size={14} />
-          <span>
-            <span className="text-ink-muted">{SETTING_SHORT[s]}:</span> {VERDICT_LABELS[published[s]!]}
-          </span>
+        <span key={s} className="inline-flex items-center gap-1">
+          <span className="text-ink-muted">{SETTING_SHORT[s]}:</span>
+          <VerdictBadge verdict={published[s]!} size="sm" />
         </span>
       ))}
     </span>

@@ -158,6 +158,18 @@ describe('feedstock pages over HTTP', () => {
     expect(robots.text).toContain('Sitemap: http://localhost:3000/sitemap.xml');
   });
 
+  it('takes page edits as JSON only from signed-in contributors, with clear 4xx answers', async () => {
+    const edit = { body: 'New text.', baseVersion: 1 };
+    const anon = await request(app.server).post('/api/feedstocks/orange-peel/revisions').send(edit);
+    expect(anon.status).toBe(401);
+    expect(anon.body.error.code).toBe('unauthenticated');
+    const missing = await request(app.server).post('/api/feedstocks/no-such-feedstock-here/revisions').send(edit);
+    expect(missing.status).toBe(404);
+    const notJson = await request(app.server).post('/api/feedstocks/orange-peel/revisions').set('Content-Type', 'application/json').send('{nope');
+    expect(notJson.status).toBe(400);
+    expect((await request(app.server).get('/feedstocks/orange-peel')).text).not.toContain('New text.');
+  });
+
   it('renders the guides, the tools and the edit page for a visitor', async () => {
     for (const slug of ['starting-a-worm-bin', 'running-a-feeding-trial', 'reading-a-verdict', 'handling-safely']) {
       const g = await request(app.server).get(`/guides/${slug}`);

@@ -16,17 +16,15 @@ const PAGES: Array<[name: string, path: string]> = [
   ['feedstock-manure', '/feedstocks/horse-manure'],
   ['guide', '/guides/reading-a-verdict'],
   ['edit-signed-out', '/feedstocks/orange-peel/edit'],
-  ['history', '/feedstocks/orange-peel/history'],
   ['search-no-match', '/search?q=kombucha+scoby'],
   ['tool-mix', '/tools/mix?m1=ref%3Acattle-manure&q1=10&m2=ref%3Anewspaper&q2=1&goal=cn&target=40&add=ref%3Astraw'],
-  ['tool-bin-size', '/tools/bin-size?scraps=3.5&unit=lb&temp=31&moisture=55'],
 ];
 const WIDTHS = [375, 1280];
 
 /** Opens a page and lets client code settle (link prefetches may keep the network busy, so idle is best effort). */
 async function open(page: Page, url: string) {
   const res = await page.goto(url, { waitUntil: 'load' });
-  await page.waitForLoadState('networkidle', { timeout: 2_000 }).catch(() => undefined);
+  await page.waitForLoadState('networkidle', { timeout: 1_000 }).catch(() => undefined);
   return res;
 }
 
