@@ -201,7 +201,7 @@ export function SearchBox({ variant, id, label, labelAsHeading = false, defaultV
       method="get"
       className={cx(isHero ? 'flex flex-col gap-3' : 'flex items-stretch', className)}
     >
-      {isHero && labelAsHeading ? <h1 className="m-0">{labelEl}</h1> : labelEl}
+      {isHero && labelAsHeading ? <h1>{labelEl}</h1> : labelEl}
       <div className={cx('relative flex w-full', isHero ? 'gap-2' : '')}>
         <input
           id={inputId}
@@ -260,8 +260,9 @@ export function SearchBox({ variant, id, label, labelAsHeading = false, defaultV
           aria-labelledby={labelId}
           hidden={!expanded}
           className={cx(
-            'absolute inset-x-0 top-full z-50 m-0 mt-1 max-h-[70vh] list-none overflow-y-auto rounded-lg border border-line-strong bg-surface-raised p-1 shadow-lg',
-            isHero ? '' : 'min-w-72 lg:w-96',
+            'absolute top-full z-50 mt-1 max-h-[70vh] list-none overflow-y-auto rounded-lg border border-line-strong bg-surface-raised p-1 shadow-lg',
+            // The header box sits at the right edge: its list opens leftwards and never past the screen.
+            isHero ? 'inset-x-0' : 'right-0 w-[min(24rem,calc(100vw-2rem))]',
           )}
         >
           {noMatch ? (
