@@ -117,6 +117,17 @@ describe('feedstock pages over HTTP', () => {
     expect(limit.body.error.fieldErrors.limit).toBeDefined();
   });
 
+  it('rebuilds the search index when feedstocks change (version check)', async () => {
+    const before = await request(app.server).get('/api/search').query({ q: 'quillwort fronds' });
+    expect(before.body.results).toEqual([]);
+    const f = await buildFeedstock({ name: 'Quillwort fronds' });
+    made.push(f);
+    // The index checks the data version at most once a second.
+    await new Promise((r) => setTimeout(r, 1_100));
+    const after = await request(app.server).get('/api/search').query({ q: 'can worms eat quillwort frond?' });
+    expect(after.body.results[0]).toMatchObject({ slug: f.slug, name: 'Quillwort fronds' });
+  });
+
   it('sorts, filters and paginates the index from the URL, ignoring bad values', async () => {
     const manure = await request(app.server).get('/feedstocks').query({ category: 'manure' });
     expect(manure.status).toBe(200);
