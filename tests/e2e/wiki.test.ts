@@ -113,4 +113,8 @@ describe('wiki pages in Chromium', () => {
     expect(await page.getByText('0.31 lb/ft²').first().isVisible()).toBe(true);
     await context.close();
   }, 60_000);
+
+  // Pending until sign-in lands (lib/auth/actor.ts is a stand-in that returns no one): the services half of this
+  // journey is tests/services/revisions.test.ts.
+  it.todo('contributor suggests an edit with preview, an editor approves it at /review/edits, the history shows the diff and a revert');
 });
