@@ -1,6 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound, permanentRedirect } from 'next/navigation';
+import { cache } from 'react';
 import { VERDICT_LABELS } from '@/components/evidence/verdict-badge';
 import { SETTING_LABELS } from '@/components/layout/vocabulary';
 import { EvidenceDerivation, PublishedVerdictCard } from '@/components/feedstock/setting-verdict';
@@ -25,15 +26,18 @@ import { CATEGORY_LABELS } from '@/lib/vocabulary';
 
 type Props = { params: Promise<{ slug: string }> };
 
-/** Resolves the slug; an old or merged address answers 308 to the current one. */
-async function load(slug: string) {
+/**
+ * Resolves the slug; an old or merged address answers 308 to the current one.
+ * Wrapped in React's `cache` so metadata and page share one lookup per request.
+ */
+const load = cache(async (slug: string) => {
   const resolved = await resolveFeedstockSlug(slug);
   if (resolved.kind === 'redirect') permanentRedirect(`/feedstocks/${resolved.slug}`);
   if (resolved.kind === 'missing') notFound();
   const page = await getFeedstockPageCached(resolved.id, resolved.stamp);
   if (!page) notFound();
   return page;
-}
+});
 
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
   const { slug } = await params;
