@@ -178,6 +178,8 @@ describe('feedstock pages over HTTP', () => {
     expect(missing.status).toBe(404);
     const notJson = await request(app.server).post('/api/feedstocks/orange-peel/revisions').set('Content-Type', 'application/json').send('{nope');
     expect(notJson.status).toBe(400);
+    const formPost = await request(app.server).post('/api/feedstocks/orange-peel/revisions').type('form').send({ body: 'x', baseVersion: '1' });
+    expect(formPost.status).toBe(400);
     expect((await request(app.server).get('/feedstocks/orange-peel')).text).not.toContain('New text.');
   });
 

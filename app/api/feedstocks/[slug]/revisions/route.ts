@@ -25,6 +25,10 @@ export async function POST(request: NextRequest, { params }: { params: Promise<{
       if (target.kind !== 'found') throw new NotFoundError('No such feedstock.');
       id = target.id;
     } else throw new NotFoundError('No such feedstock.');
+    // JSON only: a cross-site HTML form cannot send this content type without a CORS preflight.
+    if (!(request.headers.get('content-type') ?? '').toLowerCase().startsWith('application/json')) {
+      throw new InvalidInputError('Send the edit as JSON.', { _form: ['Content-Type must be application/json.'] });
+    }
     let json: unknown;
     try {
       json = await request.json();
