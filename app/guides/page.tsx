@@ -16,14 +16,14 @@ export default async function GuidesPage() {
     <div className="space-y-6">
       <h1 className="text-3xl">Guides</h1>
       <p className="max-w-prose">Short, practical guides written for worm keepers, each with its sources.</p>
-      <ul className="m-0 grid list-none gap-4 p-0 md:grid-cols-2">
+      <ul className="grid list-none gap-4 p-0 md:grid-cols-2">
         {guides.map((g) => (
           <li key={g.slug} className="space-y-2 rounded-lg border border-line bg-surface-raised p-4">
             <h2 className="text-xl">
               <Link href={`/guides/${g.slug}`}>{g.title}</Link>
             </h2>
-            <p className="m-0">{g.description}</p>
-            <p className="m-0 text-sm text-ink-muted">Updated {formatDate(g.updated)}</p>
+            <p>{g.description}</p>
+            <p className="text-sm text-ink-muted">Updated {formatDate(g.updated)}</p>
           </li>
         ))}
       </ul>

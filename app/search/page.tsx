@@ -23,10 +23,10 @@ function Hit({ hit }: { hit: SearchHit }) {
       <h2 className="text-xl">
         <Link href={`/feedstocks/${hit.slug}`}>{hit.name}</Link>
       </h2>
-      {hit.matchedAlias ? <p className="m-0 text-ink-muted">Also called “{hit.matchedAlias}”</p> : null}
-      <p className="m-0">{hit.summary}</p>
+      {hit.matchedAlias ? <p className="text-ink-muted">Also called “{hit.matchedAlias}”</p> : null}
+      <p>{hit.summary}</p>
       {settings.length ? (
-        <ul className="m-0 flex list-none flex-wrap gap-x-4 gap-y-2 p-0">
+        <ul className="flex list-none flex-wrap gap-x-4 gap-y-2 p-0">
           {settings.map((s) => (
             <li key={s} className="inline-flex items-center gap-2">
               <span className="text-ink-muted">{SETTING_LABELS[s]}:</span>
@@ -35,7 +35,7 @@ function Hit({ hit }: { hit: SearchHit }) {
           ))}
         </ul>
       ) : (
-        <p className="m-0 text-ink-muted">No published verdict yet.</p>
+        <p className="text-ink-muted">No published verdict yet.</p>
       )}
     </li>
   );
@@ -53,11 +53,11 @@ export default async function SearchPage({ searchParams }: { searchParams: Promi
       {!parsed.success ? <p role="alert">{parsed.error.issues[0]?.message}</p> : null}
       {q && outcome.results.length ? (
         <section aria-labelledby="results-heading" className="space-y-3">
-          <p id="results-heading" className="m-0 text-lg" role="status">
+          <p id="results-heading" className="text-lg" role="status">
             {outcome.results.length} {outcome.results.length === 1 ? 'feedstock matches' : 'feedstocks match'} “{q}”
             {outcome.terms.length ? <span className="text-ink-muted"> (searched for: {outcome.terms.join(' ')})</span> : null}.
           </p>
-          <ul className="m-0 list-none space-y-3 p-0">
+          <ul className="list-none space-y-3 p-0">
             {outcome.results.map((h) => (
               <Hit key={h.slug} hit={h} />
             ))}
@@ -71,17 +71,17 @@ export default async function SearchPage({ searchParams }: { searchParams: Promi
           </h2>
           {outcome.suggestions.length ? (
             <>
-              <p className="m-0">Did you mean:</p>
-              <ul className="m-0 list-none space-y-3 p-0">
+              <p>Did you mean:</p>
+              <ul className="list-none space-y-3 p-0">
                 {outcome.suggestions.map((h) => (
                   <Hit key={h.slug} hit={h} />
                 ))}
               </ul>
             </>
           ) : outcome.terms.length === 0 ? (
-            <p className="m-0">Type the name of a food scrap, bedding or garden material, like “banana peel” or “cardboard”.</p>
+            <p>Type the name of a food scrap, bedding or garden material, like “banana peel” or “cardboard”.</p>
           ) : (
-            <p className="m-0">
+            <p>
               Try another name for it, or <Link href="/feedstocks">browse all feedstocks</Link>.
             </p>
           )}

@@ -33,7 +33,7 @@ function Marker({ row }: { row: Row }) {
 /** Marker legend, for the text around the chart. */
 export function OutcomeLegend() {
   return (
-    <ul className="m-0 flex list-none flex-wrap gap-x-4 gap-y-1 p-0 text-sm" aria-label="Chart key">
+    <ul className="flex list-none flex-wrap gap-x-4 gap-y-1 p-0 text-sm" aria-label="Chart key">
       {ROWS.map((r) => (
         <li key={r} className="inline-flex items-center gap-1.5">
           <svg width="14" height="14" viewBox="-7 -7 14 14" aria-hidden="true" focusable="false" className="text-ink">
@@ -97,7 +97,7 @@ export function OutcomeChart({
     (ceilingKgM2 !== null ? `. Published dose ceiling ${formatLoad(ceilingKgM2, units)}.` : '.');
 
   return (
-    <figure className="m-0 space-y-2">
+    <figure className="space-y-2">
       <div role="region" aria-label={title} tabIndex={0} className="overflow-x-auto">
       <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-labelledby={`${titleId}-t ${titleId}-d`} className="h-auto w-full min-w-[30rem] max-w-3xl text-ink">
         <title id={`${titleId}-t`}>{title}</title>
@@ -232,7 +232,7 @@ export function SurvivalChart({ title, curves }: { title: string; curves: Surviv
   });
 
   return (
-    <figure className="m-0 space-y-2">
+    <figure className="space-y-2">
       <div role="region" aria-label={title} tabIndex={0} className="overflow-x-auto">
       <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-labelledby={`${titleId}-t ${titleId}-d`} className="h-auto w-full min-w-[30rem] max-w-3xl text-ink">
         <title id={`${titleId}-t`}>{title}</title>

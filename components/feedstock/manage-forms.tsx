@@ -44,7 +44,7 @@ function Select({
         ))}
       </select>
       {error ? (
-        <p id={`${id}-error`} className="m-0 text-sm font-semibold text-danger">
+        <p id={`${id}-error`} className="text-sm font-semibold text-danger">
           {error}
         </p>
       ) : null}
@@ -132,7 +132,7 @@ export function MergeFeedstockForm({ feedstockId, name, choices }: { feedstockId
       <h2 id="merge-heading" className="text-xl">
         Merge into another feedstock
       </h2>
-      <p className="m-0">
+      <p>
         Trials, other names, proposals and subscribers of {name.toLowerCase()} move to the feedstock you choose, and this page&rsquo;s address
         redirects there. Its text history stays for the record. This cannot be undone from here.
       </p>

@@ -34,14 +34,14 @@ export function PageEditForm({ feedstockId, initialText, baseVersion, mode }: Pa
       <input type="hidden" name="baseVersion" value={baseVersion} />
       <FormMessage state={state} />
       {!state.ok && state.message && /changed while you were editing/.test(state.message) ? (
-        <p className="m-0 text-sm">Your text is still in the box below. Copy it before you reload the page.</p>
+        <p className="text-sm">Your text is still in the box below. Copy it before you reload the page.</p>
       ) : null}
       <div className="grid gap-6 lg:grid-cols-2">
         <div className="flex flex-col gap-1">
           <label htmlFor="edit-body" className="font-semibold">
             Page text
           </label>
-          <p id="edit-body-hint" className="m-0 text-sm text-ink-muted">
+          <p id="edit-body-hint" className="text-sm text-ink-muted">
             Markdown: blank line between paragraphs, <code>## Heading</code>, <code>- list item</code>, <code>**bold**</code>,{' '}
             <code>[link](https://…)</code>. HTML and images are not shown.
           </p>
@@ -58,13 +58,13 @@ export function PageEditForm({ feedstockId, initialText, baseVersion, mode }: Pa
             className="w-full rounded-md border border-line-strong bg-surface-raised p-3 font-mono text-sm text-ink"
           />
           {bodyError ? (
-            <p id="edit-body-error" className="m-0 text-sm font-semibold text-danger">
+            <p id="edit-body-error" className="text-sm font-semibold text-danger">
               {bodyError}
             </p>
           ) : null}
         </div>
         <section aria-labelledby="preview-heading" className="rounded-lg border border-dashed border-line-strong bg-surface-raised p-4">
-          <h2 id="preview-heading" className="m-0 mb-3 text-lg text-ink-muted">
+          <h2 id="preview-heading" className="mb-3 text-lg text-ink-muted">
             Preview
           </h2>
           <PageText source={preview} />

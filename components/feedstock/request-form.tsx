@@ -15,7 +15,7 @@ export function RequestFeedstockForm({ defaultName, headingLevel = 2 }: { defaul
       <Heading id="request-heading" className="text-xl">
         Request a feedstock
       </Heading>
-      <p className="m-0 text-ink-muted">Tell the editors what you want to feed your worms. No account needed.</p>
+      <p className="text-ink-muted">Tell the editors what you want to feed your worms. No account needed.</p>
       <FormMessage state={state} />
       <Field
         label="Feedstock"

@@ -30,7 +30,7 @@ export function ReviewEditForm({ revisionId, stale }: { revisionId: number; stal
           className="w-full rounded-md border border-line-strong bg-surface-raised px-3 py-2"
         />
         {noteError ? (
-          <p id={`${noteId}-error`} className="m-0 text-sm font-semibold text-danger">
+          <p id={`${noteId}-error`} className="text-sm font-semibold text-danger">
             {noteError}
           </p>
         ) : null}
@@ -43,7 +43,7 @@ export function ReviewEditForm({ revisionId, stale }: { revisionId: number; stal
           Reject with note
         </Button>
       </div>
-      {stale ? <p className="m-0 text-sm">The page changed after this was suggested, so it cannot be approved as it is: reject it with a note asking for a redo on the current text.</p> : null}
+      {stale ? <p className="text-sm">The page changed after this was suggested, so it cannot be approved as it is: reject it with a note asking for a redo on the current text.</p> : null}
     </form>
   );
 }

@@ -27,7 +27,7 @@ export function HandlingCautions({ codes }: { codes: HandlingCautionCode[] }) {
         {codes.map((c) => (
           <div key={c}>
             <h3 className="text-lg">{HANDLING_ADVICE[c].title}</h3>
-            <ul className="m-0 mt-1 list-disc space-y-1 pl-5">
+            <ul className="mt-1 list-disc space-y-1 pl-5">
               {HANDLING_ADVICE[c].points.map((p) => (
                 <li key={p}>{p}</li>
               ))}
@@ -35,8 +35,8 @@ export function HandlingCautions({ codes }: { codes: HandlingCautionCode[] }) {
           </div>
         ))}
       </div>
-      <p className="m-0 font-semibold">{DEFER_TO_LOCAL_RULES}</p>
-      <p className="m-0 text-sm">
+      <p className="font-semibold">{DEFER_TO_LOCAL_RULES}</p>
+      <p className="text-sm">
         More in the guide <Link href="/guides/handling-safely">Handling compost, manures and shredders safely</Link>.
       </p>
     </section>
@@ -46,13 +46,13 @@ export function HandlingCautions({ codes }: { codes: HandlingCautionCode[] }) {
 /** The engine's caution sentences per setting ("heating in 3 of 5 trials, all above 6 kg/m²"). */
 export function EvidenceCautions({ settings, units }: { settings: SettingSectionDTO[]; units: Units }) {
   const withCautions = settings.filter((s) => s.cautions.length);
-  if (!withCautions.length) return <p className="m-0">No trial has recorded a problem so far.</p>;
+  if (!withCautions.length) return <p>No trial has recorded a problem so far.</p>;
   return (
     <div className="space-y-3">
       {withCautions.map((s) => (
         <div key={s.setting}>
           <h3 className="text-lg">{SETTING_LABELS[s.setting]}</h3>
-          <ul className="m-0 mt-1 list-disc space-y-1 pl-5">
+          <ul className="mt-1 list-disc space-y-1 pl-5">
             {s.cautions.map((c, i) => (
               <li key={i}>
                 <span className="text-ink-muted">{PREPARATION_LABELS[c.preparation] ?? c.preparation}:</span> {withReaderUnits(c.text, units)}
@@ -68,7 +68,7 @@ export function EvidenceCautions({ settings, units }: { settings: SettingSection
 /** How each preparation fared, per setting: the preparation advice the trials give. */
 export function PreparationAdvice({ settings, units }: { settings: SettingSectionDTO[]; units: Units }) {
   const rows = settings.flatMap((s) => s.preparations.map((p) => ({ setting: s.setting, ...p })));
-  if (!rows.length) return <p className="m-0">No trials yet, so nothing to compare. The page text below has keepers&rsquo; advice.</p>;
+  if (!rows.length) return <p>No trials yet, so nothing to compare. The page text below has keepers&rsquo; advice.</p>;
   return (
     <Table caption="How each preparation fared in trials">
       <thead>
@@ -114,7 +114,7 @@ export function PreparationAdvice({ settings, units }: { settings: SettingSectio
 export function TrialsTable({ trials, units, name }: { trials: TrialRowDTO[]; units: Units; name: string }) {
   if (!trials.length) {
     return (
-      <p className="m-0">
+      <p>
         No trials of {name.toLowerCase()} yet. <Link href="/guides/running-a-feeding-trial">How to run one</Link>.
       </p>
     );
@@ -176,7 +176,7 @@ export function OutcomeCharts({ page, units }: { page: FeedstockPageDTO; units: 
           />
         </div>
       ))}
-      <p className="m-0 text-sm text-ink-muted">Every trial in these charts is also listed in the table above.</p>
+      <p className="text-sm text-ink-muted">Every trial in these charts is also listed in the table above.</p>
     </div>
   );
 }
@@ -184,13 +184,13 @@ export function OutcomeCharts({ page, units }: { page: FeedstockPageDTO; units: 
 /** Kaplan–Meier curves per setting, each with its numbers in a table. */
 export function SurvivalCharts({ settings }: { settings: SettingSectionDTO[] }) {
   const withCurves = settings.filter((s) => s.survival.length);
-  if (!withCurves.length) return <p className="m-0">No trial has check-ins yet, so there is no curve to draw.</p>;
+  if (!withCurves.length) return <p>No trial has check-ins yet, so there is no curve to draw.</p>;
   return (
     <div className="space-y-8">
       {withCurves.map((s) => (
         <div key={s.setting} className="space-y-2">
           <h3 className="text-lg">{SETTING_LABELS[s.setting]}</h3>
-          <ul className="m-0 list-disc pl-5">
+          <ul className="list-disc pl-5">
             {s.survival.map((c) => (
               <li key={c.preparation}>
                 {PREPARATION_LABELS[c.preparation] ?? c.preparation}: median time to consumption {medianWords(c)}.
@@ -243,7 +243,7 @@ export function RelatedFeedstocks({ related, family }: { related: RelatedFeedsto
       <h2 id="related-heading" className="text-2xl">
         Related feedstocks{family ? <span className="font-sans text-lg font-normal text-ink-muted"> ({family} family)</span> : null}
       </h2>
-      <ul className="m-0 grid list-none gap-2 p-0 sm:grid-cols-2">
+      <ul className="grid list-none gap-2 p-0 sm:grid-cols-2">
         {related.map((r) => (
           <li key={r.slug} className="rounded-lg border border-line bg-surface-raised p-3">
             <Link href={`/feedstocks/${r.slug}`} className="font-semibold">

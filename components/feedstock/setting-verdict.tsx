@@ -17,7 +17,7 @@ export function PublishedVerdictCard({ section, units }: { section: SettingSecti
       {p ? (
         <>
           <VerdictBadge verdict={p.verdict} size="lg" className="self-start" />
-          <dl className="m-0 space-y-1">
+          <dl className="space-y-1">
             <div>
               <dt className="inline font-semibold">Dose ceiling: </dt>
               <dd className="inline">
@@ -35,8 +35,8 @@ export function PublishedVerdictCard({ section, units }: { section: SettingSecti
             {p.cautions.length ? (
               <div>
                 <dt className="font-semibold">Watch for:</dt>
-                <dd className="m-0">
-                  <ul className="m-0 list-disc pl-5">
+                <dd>
+                  <ul className="list-disc pl-5">
                     {p.cautions.map((c) => (
                       <li key={c}>{cautionLabel(c)}</li>
                     ))}
@@ -45,7 +45,7 @@ export function PublishedVerdictCard({ section, units }: { section: SettingSecti
               </div>
             ) : null}
           </dl>
-          <p className="m-0 text-sm text-ink-muted">
+          <p className="text-sm text-ink-muted">
             Published {formatDate(p.publishedAt)}
             {p.proposalId ? (
               <>
@@ -57,12 +57,12 @@ export function PublishedVerdictCard({ section, units }: { section: SettingSecti
           </p>
         </>
       ) : (
-        <p className="m-0">
+        <p>
           No published verdict for this setting yet.{' '}
           {section.evidence ? `The evidence so far reads ${VERDICT_LABELS[section.evidence.verdict]}.` : null}
         </p>
       )}
-      <p className="m-0 text-sm text-ink-muted">{SETTING_DESCRIPTIONS[section.setting]}</p>
+      <p className="text-sm text-ink-muted">{SETTING_DESCRIPTIONS[section.setting]}</p>
     </section>
   );
 }
@@ -78,7 +78,7 @@ export function EvidenceDerivation({ section, units }: { section: SettingSection
         {SETTING_LABELS[section.setting]}: what the trials say
       </h3>
       {section.disagree && section.published ? (
-        <p role="note" className="m-0 rounded-md border-2 border-verdict-limit bg-verdict-limit-soft p-3 text-ink">
+        <p role="note" className="rounded-md border-2 border-verdict-limit bg-verdict-limit-soft p-3 text-ink">
           <strong>The evidence and the published verdict disagree.</strong> Published: {VERDICT_LABELS[section.published.verdict]}; the trials now
           read {VERDICT_LABELS[e.verdict]}. The published verdict changes only when a moderator decides a proposal, so this feedstock is in the
           review queue.
@@ -89,7 +89,7 @@ export function EvidenceDerivation({ section, units }: { section: SettingSection
         <VerdictBadge verdict={e.verdict} size="sm" />
         <CertaintyBadge grade={e.certainty} size="sm" />
       </div>
-      <p className="m-0">
+      <p>
         {e.trialCount} {e.trialCount === 1 ? 'trial' : 'trials'}, {e.finishedCount} with an outcome.
         {e.ceilingKgM2 !== null ? (
           <>
@@ -99,7 +99,7 @@ export function EvidenceDerivation({ section, units }: { section: SettingSection
           </>
         ) : null}
       </p>
-      <ul className="m-0 list-disc space-y-1 pl-5">
+      <ul className="list-disc space-y-1 pl-5">
         {/* The certainty sentence is shown below, broken down by reason. */}
         {e.sentences
           .filter((s) => !(e.certaintyReasons.length && s.startsWith('Certainty ')))
@@ -109,9 +109,9 @@ export function EvidenceDerivation({ section, units }: { section: SettingSection
       </ul>
       {e.certaintyReasons.length ? (
         <div>
-          <p className="m-0 font-semibold">Why the certainty is {e.certainty}</p>
-          {e.certaintyBase ? <p className="m-0 text-ink-muted">It {e.certaintyBase}.</p> : null}
-          <ul className="m-0 list-disc pl-5">
+          <p className="font-semibold">Why the certainty is {e.certainty}</p>
+          {e.certaintyBase ? <p className="text-ink-muted">It {e.certaintyBase}.</p> : null}
+          <ul className="list-disc pl-5">
             {e.certaintyReasons.map((r) => (
               <li key={r.domain}>
                 <span className="font-semibold">{r.domain.charAt(0).toUpperCase() + r.domain.slice(1)}</span>: {r.reasons.join('; ')}
@@ -120,7 +120,7 @@ export function EvidenceDerivation({ section, units }: { section: SettingSection
           </ul>
         </div>
       ) : null}
-      <p className="m-0 text-sm text-ink-muted">Worked out {formatDate(e.computedAt)} from every trial logged for this setting.</p>
+      <p className="text-sm text-ink-muted">Worked out {formatDate(e.computedAt)} from every trial logged for this setting.</p>
     </section>
   );
 }

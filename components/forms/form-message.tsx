@@ -8,7 +8,7 @@ export function FormMessage({ state, className }: { state: ActionState | null | 
     <p
       role={state.ok ? 'status' : 'alert'}
       className={cx(
-        'm-0 rounded-md border-2 p-3',
+        'rounded-md border-2 p-3',
         state.ok ? 'border-verdict-feed bg-verdict-feed-soft text-ink' : 'border-danger bg-verdict-avoid-soft text-ink',
         className,
       )}

@@ -66,7 +66,7 @@ function Note({ children, tone = 'info', title }: { children: ReactNode; tone?: 
           : 'my-4 rounded-lg border border-line bg-surface-raised p-4'
       }
     >
-      {title ? <p className="m-0 mb-1 font-semibold">{title}</p> : null}
+      {title ? <p className="mb-1 font-semibold">{title}</p> : null}
       <div className="space-y-2 [&>p]:m-0">{children}</div>
     </aside>
   );

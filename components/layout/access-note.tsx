@@ -8,7 +8,7 @@ export function AccessNote({ actor, who, callbackUrl }: { actor: Actor; who: str
       <h2 id="access-heading" className="text-xl">
         {actor ? `For ${who} only` : 'Sign in first'}
       </h2>
-      <p className="m-0">{actor ? `This page is for ${who}. Ask an admin if you help run the site.` : `This page is for ${who}. Sign in to continue.`}</p>
+      <p>{actor ? `This page is for ${who}. Ask an admin if you help run the site.` : `This page is for ${who}. Sign in to continue.`}</p>
       {actor ? null : <LinkButton href={`/signin?callbackUrl=${encodeURIComponent(callbackUrl)}`}>Sign in</LinkButton>}
     </section>
   );

@@ -3,7 +3,7 @@
 import { useRouter } from 'next/navigation';
 import { useEffect, useId, useRef, useState, type KeyboardEvent } from 'react';
 import useSWR from 'swr';
-import { VerdictIcon, VERDICT_LABELS, type Verdict } from '@/components/evidence/verdict-badge';
+import { VerdictBadge, type Verdict } from '@/components/evidence/verdict-badge';
 import { cx } from '@/components/ui/class-names';
 
 export type SearchBoxProps = {
@@ -57,18 +57,16 @@ function useDebounced(value: string, ms: number): string {
   return v;
 }
 
-/** Published verdicts of one hit, compact: icon + setting + verdict words. */
+/** Published verdicts of one hit: setting, then the verdict badge (icon and words). */
 function Verdicts({ published }: { published: SearchHitView['published'] }) {
   const settings = SETTINGS.filter((s) => published[s]);
   if (!settings.length) return <span className="text-sm text-ink-muted">No published verdict yet</span>;
   return (
     <span className="flex flex-wrap gap-x-3 gap-y-1 text-sm">
       {settings.map((s) => (
-        <span key={s} className="inline-flex items-center gap-1" data-verdict={published[s]}>
-          <VerdictIcon verdict={published[s]!} size={14} />
-          <span>
-            <span className="text-ink-muted">{SETTING_SHORT[s]}:</span> {VERDICT_LABELS[published[s]!]}
-          </span>
+        <span key={s} className="inline-flex items-center gap-1">
+          <span className="text-ink-muted">{SETTING_SHORT[s]}:</span>
+          <VerdictBadge verdict={published[s]!} size="sm" />
         </span>
       ))}
     </span>
@@ -203,7 +201,7 @@ export function SearchBox({ variant, id, label, labelAsHeading = false, defaultV
       method="get"
       className={cx(isHero ? 'flex flex-col gap-3' : 'flex items-stretch', className)}
     >
-      {isHero && labelAsHeading ? <h1 className="m-0">{labelEl}</h1> : labelEl}
+      {isHero && labelAsHeading ? <h1>{labelEl}</h1> : labelEl}
       <div className={cx('relative flex w-full', isHero ? 'gap-2' : '')}>
         <input
           id={inputId}
@@ -262,8 +260,9 @@ export function SearchBox({ variant, id, label, labelAsHeading = false, defaultV
           aria-labelledby={labelId}
           hidden={!expanded}
           className={cx(
-            'absolute inset-x-0 top-full z-50 m-0 mt-1 max-h-[70vh] list-none overflow-y-auto rounded-lg border border-line-strong bg-surface-raised p-1 shadow-lg',
-            isHero ? '' : 'min-w-72 lg:w-96',
+            'absolute top-full z-50 mt-1 max-h-[70vh] list-none overflow-y-auto rounded-lg border border-line-strong bg-surface-raised p-1 shadow-lg',
+            // The header box sits at the right edge: its list opens leftwards and never past the screen.
+            isHero ? 'inset-x-0' : 'right-0 w-[min(24rem,calc(100vw-2rem))]',
           )}
         >
           {noMatch ? (

@@ -24,13 +24,13 @@ export function ToolField({
         {label}
       </label>
       {hint ? (
-        <p id={`${id}-hint`} className="m-0 text-sm text-ink-muted">
+        <p id={`${id}-hint`} className="text-sm text-ink-muted">
           {hint}
         </p>
       ) : null}
       {children({ id, 'aria-invalid': error ? true : undefined, 'aria-describedby': described })}
       {error ? (
-        <p id={`${id}-error`} className="m-0 text-sm font-semibold text-danger">
+        <p id={`${id}-error`} className="text-sm font-semibold text-danger">
           {error}
         </p>
       ) : null}

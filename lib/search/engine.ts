@@ -57,6 +57,15 @@ interface IndexRecord {
   category: string;
 }
 
+/** Words of a record, split once when the index is built (used to judge coverage of query words). */
+interface RecordWords {
+  all: Set<string>;
+  name: Set<string>;
+  aliases: Set<string>[];
+}
+
+const wordsOf = (text: string) => new Set(text.split(' ').filter(Boolean));
+
 /**
  * Matching settings. The threshold lets a word be off by about a third of its
  * letters (bitap errors / pattern length) before it stops matching at all;
@@ -82,13 +91,14 @@ export const ACCEPT_SCORE = 0.45;
 /** Near misses whose fuse score is worse than this are not offered at all. */
 export const SUGGEST_SCORE = 0.8;
 /** The most documents the letter-pair filter hands to fuse. */
-export const MAX_CANDIDATES = 60;
+export const MAX_CANDIDATES = 32;
 /** The most results a search returns. */
 export const MAX_RESULTS = 20;
 
 /** A built index over a set of documents. */
 export class FeedstockSearchIndex {
   private readonly records: IndexRecord[];
+  private readonly words: RecordWords[];
   /** Letter pair → documents with a word containing it (the candidate filter). */
   private readonly grams = new Map<string, number[]>();
   private readonly cache = new Map<string, SearchOutcome>();
@@ -101,6 +111,11 @@ export class FeedstockSearchIndex {
       aliases: d.aliases.map(indexText),
       family: d.family ? indexText(d.family) : '',
       category: indexText(d.categoryLabel),
+    }));
+    this.words = this.records.map((r) => ({
+      all: wordsOf([r.name, ...r.aliases, r.family, r.category].join(' ')),
+      name: wordsOf(r.name),
+      aliases: r.aliases.map(wordsOf),
     }));
     for (const r of this.records) {
       const seen = new Set<string>();
@@ -162,7 +177,7 @@ export class FeedstockSearchIndex {
   private run(terms: string[], text: string, max: number): SearchOutcome {
     const pool = this.candidates(terms);
     if (pool.length === 0) return { terms, results: [], suggestions: [] };
-    const found = new Fuse(pool, FUSE_OPTIONS).search(text, { limit: max * 3 });
+    const found = new Fuse(pool, FUSE_OPTIONS).search(text, { limit: max * 2 });
     const scored = found.map((r) => ({ ...this.toHit(r, terms), raw: r.score ?? 1 })).sort((a, b) => compareHits(a.hit, b.hit));
     const results = scored.filter((s) => s.hit.score <= ACCEPT_SCORE).slice(0, max).map((s) => s.hit);
     // Near misses are judged on fuse's own score: a badly typed word should still suggest its page.
@@ -176,17 +191,17 @@ export class FeedstockSearchIndex {
     let score = r.score ?? 1;
     // A query word the record lacks entirely costs more than fuse's idf weighting says:
     // "orange peel" must put Orange peel ahead of Banana peel even when "peel" is rarer.
-    const words = new Set([r.item.name, ...r.item.aliases, r.item.family, r.item.category].join(' ').split(' '));
-    const missing = terms.filter((t) => !fuzzyHas(words, t)).length;
+    const w = this.words[r.item.doc];
+    const missing = terms.filter((t) => !fuzzyHas(w.all, t)).length;
     const coveredTerms = terms.length - missing;
     score = Math.min(1, score + (0.5 * missing) / terms.length);
     // Name the alias when it explains the match better than the name does.
     let matchedAlias: string | null = null;
-    const covered = (text: string) => terms.filter((t) => fuzzyHas(new Set(text.split(' ')), t)).length;
-    const byName = covered(r.item.name);
+    const covered = (set: Set<string>) => terms.filter((t) => fuzzyHas(set, t)).length;
+    const byName = covered(w.name);
     if (byName < terms.length) {
       let best = byName;
-      r.item.aliases.forEach((a, i) => {
+      w.aliases.forEach((a, i) => {
         const c = covered(a);
         if (c > best) {
           best = c;

@@ -117,6 +117,17 @@ describe('feedstock pages over HTTP', () => {
     expect(limit.body.error.fieldErrors.limit).toBeDefined();
   });
 
+  it('rebuilds the search index when feedstocks change (version check)', async () => {
+    const before = await request(app.server).get('/api/search').query({ q: 'quillwort fronds' });
+    expect(before.body.results).toEqual([]);
+    const f = await buildFeedstock({ name: 'Quillwort fronds' });
+    made.push(f);
+    // The index checks the data version at most once a second.
+    await new Promise((r) => setTimeout(r, 1_100));
+    const after = await request(app.server).get('/api/search').query({ q: 'can worms eat quillwort frond?' });
+    expect(after.body.results[0]).toMatchObject({ slug: f.slug, name: 'Quillwort fronds' });
+  });
+
   it('sorts, filters and paginates the index from the URL, ignoring bad values', async () => {
     const manure = await request(app.server).get('/feedstocks').query({ category: 'manure' });
     expect(manure.status).toBe(200);
@@ -156,6 +167,20 @@ describe('feedstock pages over HTTP', () => {
     expect(sitemap.text).toContain('/guides/reading-a-verdict</loc>');
     const robots = await request(app.server).get('/robots.txt');
     expect(robots.text).toContain('Sitemap: http://localhost:3000/sitemap.xml');
+  });
+
+  it('takes page edits as JSON only from signed-in contributors, with clear 4xx answers', async () => {
+    const edit = { body: 'New text.', baseVersion: 1 };
+    const anon = await request(app.server).post('/api/feedstocks/orange-peel/revisions').send(edit);
+    expect(anon.status).toBe(401);
+    expect(anon.body.error.code).toBe('unauthenticated');
+    const missing = await request(app.server).post('/api/feedstocks/no-such-feedstock-here/revisions').send(edit);
+    expect(missing.status).toBe(404);
+    const notJson = await request(app.server).post('/api/feedstocks/orange-peel/revisions').set('Content-Type', 'application/json').send('{nope');
+    expect(notJson.status).toBe(400);
+    const formPost = await request(app.server).post('/api/feedstocks/orange-peel/revisions').type('form').send({ body: 'x', baseVersion: '1' });
+    expect(formPost.status).toBe(400);
+    expect((await request(app.server).get('/feedstocks/orange-peel')).text).not.toContain('New text.');
   });
 
   it('renders the guides, the tools and the edit page for a visitor', async () => {

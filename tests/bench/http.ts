@@ -293,7 +293,7 @@ async function main() {
     const ratio = (a: number, b: number) => (b ? a / b : NaN);
     const line = (label: string, value: number, target: string, ok: boolean | null) =>
       console.log(`  ${label.padEnd(58)} ${value.toFixed(2).padStart(6)}  ${target.padEnd(12)} ${ok === null ? '' : ok ? 'met' : 'MISSED'}`);
-    console.log(`\nRatios (${CONNECTIONS} connections, ${DURATION} s per run, ${gen.existing + gen.added} feedstocks, ${os.cpus().length} cores):`);
+    console.log(`\nRatios (${CONNECTIONS} connections, ${DURATION} s per run, ${gen.existing + gen.added} feedstocks, ${os.cpus().length} cores, load average ${os.loadavg().map((x) => x.toFixed(1)).join(' / ')}):`);
     line('feedstock page req/s ÷ static file req/s', ratio(pageR.rps, staticR.rps), 'target ≥ 0.5', ratio(pageR.rps, staticR.rps) >= 0.5);
     line('feedstock page req/s ÷ prerendered page req/s', ratio(pageR.rps, guideR.rps), '', null);
     line('300 feedstock pages req/s ÷ static file req/s', ratio(manyR.rps, staticR.rps), '', null);

@@ -16,17 +16,15 @@ const PAGES: Array<[name: string, path: string]> = [
   ['feedstock-manure', '/feedstocks/horse-manure'],
   ['guide', '/guides/reading-a-verdict'],
   ['edit-signed-out', '/feedstocks/orange-peel/edit'],
-  ['history', '/feedstocks/orange-peel/history'],
   ['search-no-match', '/search?q=kombucha+scoby'],
   ['tool-mix', '/tools/mix?m1=ref%3Acattle-manure&q1=10&m2=ref%3Anewspaper&q2=1&goal=cn&target=40&add=ref%3Astraw'],
-  ['tool-bin-size', '/tools/bin-size?scraps=3.5&unit=lb&temp=31&moisture=55'],
 ];
 const WIDTHS = [375, 1280];
 
 /** Opens a page and lets client code settle (link prefetches may keep the network busy, so idle is best effort). */
 async function open(page: Page, url: string) {
   const res = await page.goto(url, { waitUntil: 'load' });
-  await page.waitForLoadState('networkidle', { timeout: 2_000 }).catch(() => undefined);
+  await page.waitForLoadState('networkidle', { timeout: 1_000 }).catch(() => undefined);
   return res;
 }
 
@@ -115,4 +113,8 @@ describe('wiki pages in Chromium', () => {
     expect(await page.getByText('0.31 lb/ft²').first().isVisible()).toBe(true);
     await context.close();
   }, 60_000);
+
+  // Pending until sign-in lands (lib/auth/actor.ts is a stand-in that returns no one): the services half of this
+  // journey is tests/services/revisions.test.ts.
+  it.todo('contributor suggests an edit with preview, an editor approves it at /review/edits, the history shows the diff and a revert');
 });

@@ -1,6 +1,7 @@
 import { NextResponse, type NextRequest } from 'next/server';
 import { toErrorResponse } from '@/lib/errors';
 import { searchFeedstocks } from '@/lib/queries/search';
+import type { SearchHit } from '@/lib/search/engine';
 import { SearchQuerySchema } from '@/lib/validation/feedstocks';
 
 /**
@@ -13,8 +14,10 @@ export async function GET(request: NextRequest) {
     const params = request.nextUrl.searchParams;
     const input = SearchQuerySchema.parse({ q: params.get('q') ?? undefined, limit: params.get('limit') ?? undefined });
     const outcome = await searchFeedstocks(input.q, input.limit);
+    // Only what a search box shows: name, other name that matched, category, published verdicts.
+    const slim = (h: SearchHit) => ({ slug: h.slug, name: h.name, categoryLabel: h.categoryLabel, matchedAlias: h.matchedAlias, published: h.published });
     return NextResponse.json(
-      { query: input.q, ...outcome },
+      { query: input.q, terms: outcome.terms, results: outcome.results.map(slim), suggestions: outcome.suggestions.map(slim) },
       // Results change only when feedstocks do; a short browser cache saves refetching while people retype.
       { headers: { 'Cache-Control': 'public, max-age=30' } },
     );

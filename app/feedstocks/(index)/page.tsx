@@ -144,7 +144,7 @@ export default async function FeedstocksPage({ searchParams }: { searchParams: S
         ) : null}
       </form>
 
-      <p className="m-0" aria-live="polite">
+      <p aria-live="polite">
         {result.total === 0
           ? 'No feedstock matches these filters.'
           : `Showing ${first}–${last} of ${result.total} feedstock${result.total === 1 ? '' : 's'}${state.q ? ` matching “${state.q}”` : ''}.`}
@@ -212,7 +212,7 @@ export default async function FeedstocksPage({ searchParams }: { searchParams: S
               Previous
             </Link>
           ) : null}
-          <ol className="m-0 flex list-none flex-wrap gap-1 p-0">
+          <ol className="flex list-none flex-wrap gap-1 p-0">
             {Array.from({ length: result.pages }, (_, i) => i + 1)
               .filter((n) => n === 1 || n === result.pages || Math.abs(n - result.page) <= 2)
               .map((n, i, arr) => (

@@ -1,6 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound, permanentRedirect } from 'next/navigation';
+import { cache } from 'react';
 import { VERDICT_LABELS } from '@/components/evidence/verdict-badge';
 import { SETTING_LABELS } from '@/components/layout/vocabulary';
 import { EvidenceDerivation, PublishedVerdictCard } from '@/components/feedstock/setting-verdict';
@@ -28,15 +29,18 @@ import { CATEGORY_LABELS } from '@/lib/vocabulary';
 
 type Props = { params: Promise<{ slug: string }> };
 
-/** Resolves the slug; an old or merged address answers 308 to the current one. */
-async function load(slug: string) {
+/**
+ * Resolves the slug; an old or merged address answers 308 to the current one.
+ * Wrapped in React's `cache` so metadata and page share one lookup per request.
+ */
+const load = cache(async (slug: string) => {
   const resolved = await resolveFeedstockSlug(slug);
   if (resolved.kind === 'redirect') permanentRedirect(`/feedstocks/${resolved.slug}`);
   if (resolved.kind === 'missing') notFound();
   const page = await getFeedstockPageCached(resolved.id, resolved.stamp);
   if (!page) notFound();
   return page;
-}
+});
 
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
   const { slug } = await params;
@@ -71,7 +75,7 @@ export default async function FeedstockPage({ params }: Props) {
     <article className="space-y-10">
       <header className="space-y-3">
         <nav aria-label="Breadcrumb" className="text-sm">
-          <ol className="m-0 flex list-none flex-wrap gap-1 p-0">
+          <ol className="flex list-none flex-wrap gap-1 p-0">
             <li>
               <Link href="/feedstocks">Feedstocks</Link>
               <span aria-hidden="true"> ›</span>
@@ -86,21 +90,21 @@ export default async function FeedstockPage({ params }: Props) {
         <h1 className="text-4xl">{page.name}</h1>
         {page.summary ? <p className="max-w-prose text-lg">{page.summary}</p> : null}
         {page.aliases.length ? (
-          <p className="m-0 text-ink-muted">
+          <p className="text-ink-muted">
             Also called: {page.aliases.join(', ')}
             {page.family ? ` · ${page.family} family` : ''}
           </p>
         ) : null}
         <div className="flex flex-wrap items-center gap-x-6 gap-y-3">
           <UnitsToggle units={units} />
-          <p className="m-0 flex flex-wrap gap-x-4 gap-y-1 text-sm">
+          <p className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
             <Link href={`/feedstocks/${page.slug}/edit`}>{canEdit ? 'Edit this page' : canSuggest ? 'Suggest an edit' : 'Edit this page'}</Link>
             <Link href={`/feedstocks/${page.slug}/history`}>Page history</Link>
             <a href={`#subscribe-${page.id}-heading`}>Follow by e-mail</a>
             <a href={`/feedstocks/${page.slug}/feed.xml`}>Updates feed (Atom)</a>
           </p>
         </div>
-        {page.isDemo ? <p className="m-0 text-sm text-ink-muted">Demo data: the trials on this page are invented.</p> : null}
+        {page.isDemo ? <p className="text-sm text-ink-muted">Demo data: the trials on this page are invented.</p> : null}
       </header>
 
       <section aria-labelledby="answer-heading" className="space-y-4">
@@ -119,13 +123,13 @@ export default async function FeedstockPage({ params }: Props) {
           </p>
         )}
         {disagreements.length ? (
-          <p role="note" className="m-0 max-w-prose rounded-md border-2 border-verdict-limit bg-verdict-limit-soft p-3">
+          <p role="note" className="max-w-prose rounded-md border-2 border-verdict-limit bg-verdict-limit-soft p-3">
             <strong>Heads up:</strong> newer trials disagree with the published verdict for{' '}
             {disagreements.map((s) => SETTING_LABELS[s.setting].toLowerCase()).join(' and ')}.{' '}
             <a href="#evidence-heading">See what the trials say</a>.
           </p>
         ) : null}
-        <p className="m-0 text-sm text-ink-muted">
+        <p className="text-sm text-ink-muted">
           Verdicts change only when a moderator decides a proposal. <Link href="/guides/reading-a-verdict">How to read a verdict</Link>.
         </p>
       </section>
@@ -155,7 +159,7 @@ export default async function FeedstockPage({ params }: Props) {
         <div data-user-text-start="" hidden />
         <PageText source={page.pageText} />
         <div data-user-text-end="" hidden />
-        <p className="m-0 text-sm text-ink-muted">
+        <p className="text-sm text-ink-muted">
           Written by keepers; <Link href={`/feedstocks/${page.slug}/history`}>version {page.version}</Link>.
         </p>
       </section>
@@ -187,7 +191,7 @@ export default async function FeedstockPage({ params }: Props) {
         <h2 id="km-heading" className="text-2xl">
           How long it takes
         </h2>
-        <p className="m-0 max-w-prose">
+        <p className="max-w-prose">
           Time from feeding until little was left and worms were working it (Kaplan–Meier estimate: trials still running count until their
           last check-in instead of being dropped).
         </p>
@@ -203,34 +207,34 @@ export default async function FeedstockPage({ params }: Props) {
           <h2 id="ref-heading" className="text-2xl">
             Reference values
           </h2>
-          <dl className="m-0 grid max-w-prose grid-cols-[auto_1fr] gap-x-4 gap-y-1">
+          <dl className="grid max-w-prose grid-cols-[auto_1fr] gap-x-4 gap-y-1">
             {page.reference.cnRatio !== null ? (
               <>
                 <dt className="font-semibold">C:N ratio</dt>
-                <dd className="m-0">{formatNumber(page.reference.cnRatio, 3)}:1</dd>
+                <dd>{formatNumber(page.reference.cnRatio, 3)}:1</dd>
               </>
             ) : null}
             {page.reference.nitrogenPct !== null ? (
               <>
                 <dt className="font-semibold">Nitrogen</dt>
-                <dd className="m-0">{formatNumber(page.reference.nitrogenPct, 2)}% of dry mass</dd>
+                <dd>{formatNumber(page.reference.nitrogenPct, 2)}% of dry mass</dd>
               </>
             ) : null}
             {page.reference.moisturePct !== null ? (
               <>
                 <dt className="font-semibold">Moisture</dt>
-                <dd className="m-0">{formatNumber(page.reference.moisturePct, 2)}% of fresh mass</dd>
+                <dd>{formatNumber(page.reference.moisturePct, 2)}% of fresh mass</dd>
               </>
             ) : null}
             {page.reference.bulkDensityKgM3 !== null ? (
               <>
                 <dt className="font-semibold">Bulk density</dt>
-                <dd className="m-0">{formatNumber(page.reference.bulkDensityKgM3, 3)} kg/m³</dd>
+                <dd>{formatNumber(page.reference.bulkDensityKgM3, 3)} kg/m³</dd>
               </>
             ) : null}
           </dl>
-          {page.reference.source ? <p className="m-0 max-w-prose text-sm text-ink-muted">Source: {page.reference.source}</p> : null}
-          <p className="m-0 text-sm">
+          {page.reference.source ? <p className="max-w-prose text-sm text-ink-muted">Source: {page.reference.source}</p> : null}
+          <p className="text-sm">
             <Link href="/tools/mix">Work out a mix with the C:N and moisture calculator</Link>
           </p>
         </section>

@@ -33,7 +33,7 @@ export default async function GuidePage({ params }: Props) {
       </nav>
       <h1 className="text-4xl">{guide.meta.title}</h1>
       <p className="max-w-prose text-lg text-ink-muted">{guide.meta.description}</p>
-      <p className="m-0 text-sm text-ink-muted">
+      <p className="text-sm text-ink-muted">
         Updated <time dateTime={guide.meta.updated}>{formatDate(guide.meta.updated)}</time>
       </p>
       <div className="page-text">{guide.content}</div>

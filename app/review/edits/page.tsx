@@ -30,13 +30,13 @@ export default async function ReviewEditsPage() {
         {edits.length ? `${edits.length} ${edits.length === 1 ? 'edit is' : 'edits are'} waiting, oldest first.` : 'Nothing is waiting.'} Also:{' '}
         <Link href="/review/requests">requested feedstocks</Link>.
       </p>
-      <ol className="m-0 list-none space-y-6 p-0">
+      <ol className="list-none space-y-6 p-0">
         {edits.map((e) => (
           <li key={e.id} className="space-y-3 rounded-lg border border-line bg-surface-raised p-4">
             <h2 className="text-xl">
               <Link href={`/feedstocks/${e.feedstockSlug}`}>{e.feedstockName}</Link>
             </h2>
-            <p className="m-0">
+            <p>
               {e.editSummary ? <>“{e.editSummary}” — </> : null}
               {e.authorName ?? 'a former member'}, {formatDate(e.createdAt)}. Made against version {e.baseVersion}
               {e.stale ? <strong> (the page is now version {e.currentVersion})</strong> : null}. {e.added} lines added, {e.removed} removed

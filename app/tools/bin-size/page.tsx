@@ -111,7 +111,7 @@ export default async function BinSizePage({ searchParams }: { searchParams: Prom
       </form>
 
       {submitted && Object.keys(errors).length ? (
-        <p role="alert" className="m-0 rounded-md border-2 border-danger bg-verdict-avoid-soft p-3">
+        <p role="alert" className="rounded-md border-2 border-danger bg-verdict-avoid-soft p-3">
           Some fields need attention: see the messages next to them.
         </p>
       ) : null}
@@ -121,26 +121,26 @@ export default async function BinSizePage({ searchParams }: { searchParams: Prom
           <h2 id="bin-result" className="text-2xl">
             Your bin
           </h2>
-          <dl className="m-0 grid max-w-xl grid-cols-[auto_1fr] gap-x-6 gap-y-1 text-lg">
+          <dl className="grid max-w-xl grid-cols-[auto_1fr] gap-x-6 gap-y-1 text-lg">
             <dt className="font-semibold">Surface</dt>
-            <dd className="m-0">
+            <dd>
               {formatNumber(bin.areaM2, 2)} m² ({formatNumber(bin.areaFt2, 2)} ft²)
             </dd>
             <dt className="font-semibold">A box that fits</dt>
-            <dd className="m-0">
+            <dd>
               {bin.box.widthFt} × {bin.box.lengthFt} ft ({formatNumber(bin.box.widthFt * 0.3048, 2)} × {formatNumber(bin.box.lengthFt * 0.3048, 2)} m)
             </dd>
             <dt className="font-semibold">Depth</dt>
-            <dd className="m-0">
+            <dd>
               {bin.depthIn} in ({formatNumber(bin.depthCm, 2)} cm)
             </dd>
             <dt className="font-semibold">Worms</dt>
-            <dd className="m-0">
+            <dd>
               {formatNumber(bin.wormMassKg, 2)} kg ({formatNumber(bin.wormMassLb, 2)} lb) at {formatNumber(bin.feedRate, 2)} kg of food per kg of
               worms a day
             </dd>
           </dl>
-          <p className="m-0 max-w-prose text-sm text-ink-muted">
+          <p className="max-w-prose text-sm text-ink-muted">
             Start with fewer worms and feed less for the first weeks: a new bin takes a while to reach that rate.
           </p>
         </section>
@@ -151,7 +151,7 @@ export default async function BinSizePage({ searchParams }: { searchParams: Prom
           <h2 id="comfort-result" className="text-2xl">
             Comfort: {STATUS_WORDS[comfort.status]}
           </h2>
-          <ul className="m-0 list-disc pl-5">
+          <ul className="list-disc pl-5">
             {comfort.temperature ? <li>Temperature: {comfort.temperature.status}, {comfort.temperature.reason}.</li> : null}
             {comfort.moisture ? <li>Moisture: {comfort.moisture.status}, {comfort.moisture.reason}.</li> : null}
           </ul>
@@ -162,7 +162,7 @@ export default async function BinSizePage({ searchParams }: { searchParams: Prom
         <h2 id="bin-how" className="text-lg text-ink">
           How it is worked out
         </h2>
-        <p className="m-0">
+        <p>
           One square foot of bin surface per pound of food scraps a week, about 8 inches deep (NC State Extension, AG-473-18). Worms eat about half
           their weight a day in good conditions (a rule of thumb from the OACC on-farm vermiculture manual, from memory). Comfort limits for{' '}
           <i>Eisenia fetida</i>: 4–30 °C and 60–90% moisture for breeding (Edwards (ed.), <i>Earthworm Ecology</i>, ch. 18, Table 18.3); worms die

@@ -179,12 +179,12 @@ export default async function MixPage({ searchParams }: { searchParams: Promise<
       </form>
 
       {formError ? (
-        <p role="alert" className="m-0 rounded-md border-2 border-danger bg-verdict-avoid-soft p-3">
+        <p role="alert" className="rounded-md border-2 border-danger bg-verdict-avoid-soft p-3">
           {formError}
         </p>
       ) : null}
       {submitted && Object.keys(err).length ? (
-        <p role="alert" className="m-0 rounded-md border-2 border-danger bg-verdict-avoid-soft p-3">
+        <p role="alert" className="rounded-md border-2 border-danger bg-verdict-avoid-soft p-3">
           Some fields need attention: see the messages next to them.
         </p>
       ) : null}
@@ -194,18 +194,18 @@ export default async function MixPage({ searchParams }: { searchParams: Promise<
           <h2 id="mix-result" className="text-2xl">
             The mix
           </h2>
-          <dl className="m-0 grid max-w-xl grid-cols-[auto_1fr] gap-x-6 gap-y-1 text-lg">
+          <dl className="grid max-w-xl grid-cols-[auto_1fr] gap-x-6 gap-y-1 text-lg">
             <dt className="font-semibold">C:N ratio</dt>
-            <dd className="m-0">{formatNumber(result.props.cnRatio, 3)}:1</dd>
+            <dd>{formatNumber(result.props.cnRatio, 3)}:1</dd>
             <dt className="font-semibold">Moisture</dt>
-            <dd className="m-0">{formatNumber(result.props.moisturePct, 3)}%</dd>
+            <dd>{formatNumber(result.props.moisturePct, 3)}%</dd>
             <dt className="font-semibold">Fresh mass</dt>
-            <dd className="m-0">
+            <dd>
               {formatNumber(result.props.wetMass, 3)} {unit} ({formatNumber(result.props.dryMass, 3)} {unit} dry matter)
             </dd>
           </dl>
-          {result.target ? <p className="m-0 text-lg font-semibold">{result.target.text}</p> : null}
-          <ul className="m-0 max-w-prose list-disc space-y-1 pl-5">
+          {result.target ? <p className="text-lg font-semibold">{result.target.text}</p> : null}
+          <ul className="max-w-prose list-disc space-y-1 pl-5">
             <li>
               Worm beds are kept much wetter than a compost heap: worms grow and breed best at roughly 70–90% moisture (limits about 60–90%). The
               40–65% range quoted for hot composting does not apply to worm bedding.
@@ -246,7 +246,7 @@ export default async function MixPage({ searchParams }: { searchParams: Promise<
         <h2 id="mix-how" className="text-lg text-ink">
           How it is worked out
         </h2>
-        <p className="m-0">
+        <p>
           Mix C:N = Σ mass × carbon × dry share ÷ Σ mass × nitrogen × dry share; mix moisture = Σ mass × moisture ÷ Σ mass (T. Richard and N.
           Trautmann, Cornell Waste Management Institute, &ldquo;Getting the right mix&rdquo;). Reference values: G. L. Bertrand&rsquo;s
           compost-calculator table (Missouri S&amp;T), drawing on the On-Farm Composting Handbook (NRAES-54); feedstock values name their own

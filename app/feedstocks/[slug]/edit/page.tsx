@@ -45,7 +45,7 @@ export default async function EditPage({ params }: Props) {
             <h2 id="signin-heading" className="text-xl">
               Sign in to edit
             </h2>
-            <p className="m-0">
+            <p>
               {actor
                 ? 'Contributors can suggest edits and editors publish them. Accept the contributor licence on your account page to start suggesting.'
                 : 'Contributors suggest edits, which an editor reviews; editors publish directly. Sign in to take part.'}

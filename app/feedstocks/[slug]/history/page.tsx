@@ -55,14 +55,14 @@ export default async function HistoryPage({ params }: Props) {
           </>
         ) : null}
       </p>
-      <ol className="m-0 list-none space-y-6 p-0">
+      <ol className="list-none space-y-6 p-0">
         {history.entries.map((e, i) => (
           <li key={e.id} className="space-y-3 rounded-lg border border-line bg-surface-raised p-4">
             <h2 className="text-xl">
               Version {e.version}
               {e.isCurrent ? <span className="ml-2 rounded-full bg-accent-soft px-2 py-0.5 font-sans text-sm font-semibold text-accent-strong">current</span> : null}
             </h2>
-            <p className="m-0">
+            <p>
               {e.editSummary ? <>“{e.editSummary}” — </> : null}
               {e.authorName ?? 'a former member'}
               {e.reviewerName && e.reviewerName !== e.authorName ? `, approved by ${e.reviewerName}` : ''},{' '}
