@@ -267,6 +267,18 @@ export const ROUTE_ROWS: RouteRow[] = [
   { route: 'GET /api/feedstocks/[slug]/export', request: async () => ({ path: '/api/feedstocks/banana-peel/export?format=csv' }), expect: all(200) },
   { route: 'GET /api/feedstocks/[slug]/export.csv', request: async () => ({ path: '/api/feedstocks/banana-peel/export.csv' }), expect: all(200) },
   { route: 'GET /api/feedstocks/[slug]/export.json', request: async () => ({ path: '/api/feedstocks/banana-peel/export.json' }), expect: all(200) },
+  {
+    // JSON page edits: editors publish, contributors' edits wait for review; both answer 201.
+    route: 'POST /api/feedstocks/[slug]/revisions',
+    request: async (cell) => {
+      const f = await freshFeedstock();
+      wikiFeedstocks.set(cell, f);
+      return { path: `/api/feedstocks/${f.slug}/revisions`, json: { body: `New text by ${cell.who}.`, baseVersion: f.version, editSummary: 'matrix' } };
+    },
+    expect: { anonymous: 401, reader: 403, contributor: 201, editor: 201, moderator: 201, admin: 201 },
+    check: async (cell, { allowed }) => expectEqual(await FeedstockRevision.count({ where: { feedstockId: wikiFeedstocks.get(cell)!.id } }), allowed ? 1 : 0, 'revisions stored'),
+  },
+
   // --- Subscriptions, unsubscribe and feeds (issue 8). Unsubscribing needs no session: the signed token decides.
   {
     // Visitors get an empty list; readers and up their own subscriptions.
