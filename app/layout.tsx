@@ -5,6 +5,7 @@ import { SiteFooter } from '@/components/layout/site-footer';
 import { AccountNav } from '@/components/layout/account-nav';
 import { SiteHeader } from '@/components/layout/site-header';
 import { SkipLink } from '@/components/layout/skip-link';
+import { UNITS_SCRIPT } from '@/lib/units-cookie';
 import './globals.css';
 
 export const metadata: Metadata = {
@@ -30,7 +31,11 @@ export const viewport: Viewport = {
 
 export default function RootLayout({ children }: { children: ReactNode }) {
   return (
-    <html lang="en" className={`${bodyFont.variable} ${headingFont.variable}`}>
+    // suppressHydrationWarning: the script below sets data-units on <html> before React hydrates.
+    <html lang="en" className={`${bodyFont.variable} ${headingFont.variable}`} suppressHydrationWarning>
+      <head>
+        <script dangerouslySetInnerHTML={{ __html: UNITS_SCRIPT }} />
+      </head>
       <body className="flex min-h-dvh flex-col">
         <SkipLink />
         <SiteHeader account={(place) => <AccountNav {...place} />} />

@@ -89,7 +89,7 @@ export function OutcomeChart({
   const x = (kgM2: number) => left + ((lx(loadIn(kgM2, units)) - lx(lo)) / Math.max(1e-9, lx(hi) - lx(lo))) * (W - left - right);
   const y = (r: Row) => top + ROWS.indexOf(r) * rowH + rowH / 2;
   const counts = ROWS.map((r) => [r, points.filter((p) => (p.outcome ?? 'none') === r).length] as const).filter(([, n]) => n > 0);
-  const titleId = `chart-${title.replace(/[^a-z0-9]+/gi, '-').toLowerCase()}`;
+  const titleId = `chart-${title.replace(/[^a-z0-9]+/gi, '-').toLowerCase()}-${units}`;
   const seen = new Map<string, number>();
   const summary =
     `${points.length} ${points.length === 1 ? 'trial' : 'trials'} from ${formatLoad(Math.min(...points.map((p) => p.loadKgM2)), units)} to ${formatLoad(Math.max(...points.map((p) => p.loadKgM2)), units)}: ` +

@@ -3,9 +3,10 @@ import { VerdictBadge, VERDICT_LABELS } from '@/components/evidence/verdict-badg
 import { DEFER_TO_LOCAL_RULES } from '@/components/layout/safety-note';
 import { SETTING_LABELS } from '@/components/layout/vocabulary';
 import { Table } from '@/components/ui/table';
-import { formatLoad, formatNumber, withReaderUnits, type Units } from '@/lib/format';
+import { formatNumber } from '@/lib/format';
 import type { FeedstockPageDTO, RelatedFeedstockDTO, SettingSectionDTO, TrialRowDTO } from '@/lib/queries/feedstocks';
 import { medianWords, OutcomeChart, OutcomeLegend, SurvivalChart } from './charts';
+import { ForEachUnits, Load, ReaderUnitsText } from './load';
 import {
   HANDLING_ADVICE,
   OUTCOME_LABELS,
@@ -44,7 +45,7 @@ export function HandlingCautions({ codes }: { codes: HandlingCautionCode[] }) {
 }
 
 /** The engine's caution sentences per setting ("heating in 3 of 5 trials, all above 6 kg/m²"). */
-export function EvidenceCautions({ settings, units }: { settings: SettingSectionDTO[]; units: Units }) {
+export function EvidenceCautions({ settings }: { settings: SettingSectionDTO[] }) {
   const withCautions = settings.filter((s) => s.cautions.length);
   if (!withCautions.length) return <p>No trial has recorded a problem so far.</p>;
   return (
@@ -55,7 +56,7 @@ export function EvidenceCautions({ settings, units }: { settings: SettingSection
           <ul className="mt-1 list-disc space-y-1 pl-5">
             {s.cautions.map((c, i) => (
               <li key={i}>
-                <span className="text-ink-muted">{PREPARATION_LABELS[c.preparation] ?? c.preparation}:</span> {withReaderUnits(c.text, units)}
+                <span className="text-ink-muted">{PREPARATION_LABELS[c.preparation] ?? c.preparation}:</span> <ReaderUnitsText text={c.text} />
               </li>
             ))}
           </ul>
@@ -66,7 +67,7 @@ export function EvidenceCautions({ settings, units }: { settings: SettingSection
 }
 
 /** How each preparation fared, per setting: the preparation advice the trials give. */
-export function PreparationAdvice({ settings, units }: { settings: SettingSectionDTO[]; units: Units }) {
+export function PreparationAdvice({ settings }: { settings: SettingSectionDTO[] }) {
   const rows = settings.flatMap((s) => s.preparations.map((p) => ({ setting: s.setting, ...p })));
   if (!rows.length) return <p>No trials yet, so nothing to compare. The page text below has keepers&rsquo; advice.</p>;
   return (
@@ -102,7 +103,7 @@ export function PreparationAdvice({ settings, units }: { settings: SettingSectio
               {r.successShare !== null ? `${Math.round(r.successShare * 100)}% of ${r.finishedCount}` : '—'}
               <span className="text-ink-muted"> ({r.trialCount} logged)</span>
             </td>
-            <td>{r.ceilingKgM2 !== null ? formatLoad(r.ceilingKgM2, units) : '—'}</td>
+            <td>{r.ceilingKgM2 !== null ? <Load kgM2={r.ceilingKgM2} /> : '—'}</td>
           </tr>
         ))}
       </tbody>
@@ -111,7 +112,7 @@ export function PreparationAdvice({ settings, units }: { settings: SettingSectio
 }
 
 /** The linked trials: setting, preparation, load, status, outcome, region only. */
-export function TrialsTable({ trials, units, name }: { trials: TrialRowDTO[]; units: Units; name: string }) {
+export function TrialsTable({ trials, name }: { trials: TrialRowDTO[]; name: string }) {
   if (!trials.length) {
     return (
       <p>
@@ -140,7 +141,7 @@ export function TrialsTable({ trials, units, name }: { trials: TrialRowDTO[]; un
             </th>
             <td>{SETTING_LABELS[t.setting]}</td>
             <td>{PREPARATION_LABELS[t.preparation] ?? t.preparation}</td>
-            <td className="whitespace-nowrap">{formatLoad(t.surfaceLoadKgM2, units)}</td>
+            <td className="whitespace-nowrap"><Load kgM2={t.surfaceLoadKgM2} /></td>
             <td>{TRIAL_STATUS_LABELS[t.status] ?? t.status}</td>
             <td>{t.outcome ? OUTCOME_LABELS[t.outcome as OutcomeCode] : <span className="text-ink-muted">—</span>}</td>
             <td>{t.region}</td>
@@ -152,7 +153,7 @@ export function TrialsTable({ trials, units, name }: { trials: TrialRowDTO[]; un
 }
 
 /** One outcome-against-load chart per setting, on a shared scale. */
-export function OutcomeCharts({ page, units }: { page: FeedstockPageDTO; units: Units }) {
+export function OutcomeCharts({ page }: { page: FeedstockPageDTO }) {
   if (!page.trials.length) return null;
   const loads = page.trials.map((t) => t.surfaceLoadKgM2).filter((x) => x > 0);
   const ceilings = page.settings.map((s) => s.published?.ceilingKgM2).filter((x): x is number => typeof x === 'number' && x > 0);
@@ -165,14 +166,18 @@ export function OutcomeCharts({ page, units }: { page: FeedstockPageDTO; units: 
       {bySetting.map((s) => (
         <div key={s} className="space-y-1">
           <h3 className="text-lg">{SETTING_LABELS[s]}</h3>
-          <OutcomeChart
-            title={`Outcome against surface load, ${SETTING_LABELS[s].toLowerCase()}`}
-            points={page.trials
-              .filter((t) => t.setting === s)
-              .map((t) => ({ id: t.id, preparation: t.preparation, loadKgM2: t.surfaceLoadKgM2, outcome: t.outcome, status: t.status }))}
-            units={units}
-            ceilingKgM2={page.settings.find((x) => x.setting === s)?.published?.ceilingKgM2 ?? null}
-            domainKgM2={domain}
+          <ForEachUnits
+            render={(units) => (
+              <OutcomeChart
+                title={`Outcome against surface load, ${SETTING_LABELS[s].toLowerCase()}`}
+                points={page.trials
+                  .filter((t) => t.setting === s)
+                  .map((t) => ({ id: t.id, preparation: t.preparation, loadKgM2: t.surfaceLoadKgM2, outcome: t.outcome, status: t.status }))}
+                units={units}
+                ceilingKgM2={page.settings.find((x) => x.setting === s)?.published?.ceilingKgM2 ?? null}
+                domainKgM2={domain}
+              />
+            )}
           />
         </div>
       ))}

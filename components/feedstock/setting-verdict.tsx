@@ -1,12 +1,13 @@
 import Link from 'next/link';
 import { CertaintyBadge, VerdictBadge, VERDICT_LABELS } from '@/components/evidence/verdict-badge';
 import { SETTING_DESCRIPTIONS, SETTING_LABELS } from '@/components/layout/vocabulary';
-import { formatDate, formatLoad, withReaderUnits, type Units } from '@/lib/format';
+import { formatDate } from '@/lib/format';
 import type { SettingSectionDTO } from '@/lib/queries/feedstocks';
+import { Load, ReaderUnitsText } from './load';
 import { cautionLabel, PREPARATION_LABELS } from './vocabulary';
 
 /** The published verdict for one setting, with its ceiling and cautions: the answer a reader came for. */
-export function PublishedVerdictCard({ section, units }: { section: SettingSectionDTO; units: Units }) {
+export function PublishedVerdictCard({ section }: { section: SettingSectionDTO }) {
   const p = section.published;
   const headingId = `verdict-${section.setting}`;
   return (
@@ -23,7 +24,7 @@ export function PublishedVerdictCard({ section, units }: { section: SettingSecti
               <dd className="inline">
                 {p.ceilingKgM2 !== null ? (
                   <>
-                    {formatLoad(p.ceilingKgM2, units)} <span className="text-ink-muted">per feeding</span>
+                    <Load kgM2={p.ceilingKgM2} /> <span className="text-ink-muted">per feeding</span>
                   </>
                 ) : p.verdict === 'feed' ? (
                   'none needed at ordinary doses'
@@ -68,7 +69,7 @@ export function PublishedVerdictCard({ section, units }: { section: SettingSecti
 }
 
 /** The evidence verdict for one setting and how the engine reached it, in plain words. */
-export function EvidenceDerivation({ section, units }: { section: SettingSectionDTO; units: Units }) {
+export function EvidenceDerivation({ section }: { section: SettingSectionDTO }) {
   const e = section.evidence;
   const headingId = `evidence-${section.setting}`;
   if (!e) return null;
@@ -94,7 +95,7 @@ export function EvidenceDerivation({ section, units }: { section: SettingSection
         {e.ceilingKgM2 !== null ? (
           <>
             {' '}
-            Dose ceiling from the trials: {formatLoad(e.ceilingKgM2, units)}
+            Dose ceiling from the trials: <Load kgM2={e.ceilingKgM2} />
             {e.ceilingPreparation ? ` (${(PREPARATION_LABELS[e.ceilingPreparation] ?? e.ceilingPreparation).toLowerCase()})` : ''}.
           </>
         ) : null}
@@ -104,7 +105,9 @@ export function EvidenceDerivation({ section, units }: { section: SettingSection
         {e.sentences
           .filter((s) => !(e.certaintyReasons.length && s.startsWith('Certainty ')))
           .map((s, i) => (
-            <li key={i}>{withReaderUnits(s, units)}</li>
+            <li key={i}>
+              <ReaderUnitsText text={s} />
+            </li>
           ))}
       </ul>
       {e.certaintyReasons.length ? (

@@ -11,7 +11,7 @@ type Open = Awaited<ReturnType<typeof listOpenProposals>>;
  * tallies, a way to propose a change, and the verdict history (who, when,
  * which proposal, the note).
  */
-export function VerdictHistorySection({ slug, history, open, canPropose }: { slug: string; history: History; open: Open; canPropose: boolean }) {
+export function VerdictHistorySection({ slug, history, open }: { slug: string; history: History; open: Open }) {
   return (
     <section id="verdict-history" aria-labelledby="verdict-history-heading" className="space-y-4">
       <h2 id="verdict-history-heading" className="text-2xl">
@@ -38,13 +38,10 @@ export function VerdictHistorySection({ slug, history, open, canPropose }: { slu
         <p className="m-0">No open proposals.</p>
       )}
       <p className="m-0">
-        {canPropose ? (
-          <Link href={`/feedstocks/${slug}/propose`} className="font-semibold">
-            Propose a change to the published verdict
-          </Link>
-        ) : (
-          <span className="text-ink-muted">Contributors can propose a change to the published verdict; a moderator decides.</span>
-        )}
+        <Link href={`/feedstocks/${slug}/propose`} className="font-semibold">
+          Propose a change to the published verdict
+        </Link>{' '}
+        <span className="text-ink-muted">(contributors propose and vote; a moderator decides)</span>
       </p>
       {history.length ? (
         <ol className="m-0 list-none space-y-2 p-0">

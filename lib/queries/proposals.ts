@@ -280,3 +280,21 @@ export async function listOpenProposals(feedstockId: number) {
   const byId = new Map(counts.map((c) => [Number(c.proposal_id), tallyVotes(Number(c.agree), Number(c.n) - Number(c.agree))]));
   return rows.map((p) => ({ id: p.id, settings: p.settings, createdAt: p.createdAt.toISOString(), tally: byId.get(p.id) ?? tallyVotes(0, 0) }));
 }
+
+/** The feedstock a proposal is about (id and current slug), or null; for dropping cached pages after a write. */
+export async function getProposalFeedstockRef(proposalId: number): Promise<{ id: number; slug: string } | null> {
+  const [row] = await sequelize.query<{ id: number; slug: string }>(
+    'SELECT f.id, f.slug FROM proposals p JOIN feedstocks f ON f.id = p.feedstock_id WHERE p.id = ?',
+    { replacements: [proposalId], type: QueryTypes.SELECT },
+  );
+  return row ? { id: Number(row.id), slug: row.slug } : null;
+}
+
+/** The feedstock of the proposal a vote belongs to, or null. */
+export async function getVoteFeedstockRef(voteId: number): Promise<{ id: number; slug: string } | null> {
+  const [row] = await sequelize.query<{ id: number; slug: string }>(
+    'SELECT f.id, f.slug FROM votes v JOIN proposals p ON p.id = v.proposal_id JOIN feedstocks f ON f.id = p.feedstock_id WHERE v.id = ?',
+    { replacements: [voteId], type: QueryTypes.SELECT },
+  );
+  return row ? { id: Number(row.id), slug: row.slug } : null;
+}

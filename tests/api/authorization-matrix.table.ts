@@ -446,12 +446,6 @@ export const ACTION_ROWS: ActionRow[] = [
     expect: { anonymous: 'unauthenticated', reader: 'forbidden', contributor: 'forbidden', editor: 'ok', moderator: 'ok', admin: 'ok' },
     check: async (cell, { allowed }) => expectEqual((await Feedstock.findByPk(wikiFeedstocks.get(cell)!.id))!.mergedIntoId !== null, allowed, 'merged'),
   },
-  {
-    // A display preference in a cookie; anyone may set it.
-    action: 'app/preferences/actions.ts#setUnitsAction',
-    fields: async () => ({ units: 'imperial' }),
-    expect: all('ok'),
-  },
   // --- Trial forms.
   {
     action: 'app/trials/actions.ts#createTrialAction',

@@ -5,8 +5,10 @@ import { sequelize } from '@/db';
 import { Feedstock, FeedstockRedirect } from '@/db/models';
 import { DEMO_FEEDSTOCKS } from '@/db/seeders/demo-scenario';
 import { startNextHandler } from '../support/next-app';
-import { buildFeedstock } from '../support/factories';
+import { buildFeedstock, buildUser } from '../support/factories';
+import { openSession } from '../support/sessions';
 import { XSS_VECTORS, assertInertHtml } from '../support/xss';
+import { UNITS_SCRIPT } from '@/lib/units-cookie';
 
 /** Text as React writes it into HTML. */
 const html = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#x27;');
@@ -45,12 +47,36 @@ describe('feedstock pages over HTTP', () => {
     expect(plain.text).not.toContain('Handling it safely');
   });
 
-  it('shows loads in the reader’s units from the units cookie', async () => {
+  it('puts every load in both units into the one cached page; the browser shows the reader’s', async () => {
     // Orange peel's published bin ceiling is 1.5 kg/m² (demo scenario) = 0.307 lb/ft² (1 lb = 0.45359237 kg, 1 ft² = 0.09290304 m², NIST SP 811).
     const metric = await request(app.server).get('/feedstocks/orange-peel');
-    expect(metric.text).toContain('1.5 kg/m²');
+    expect(metric.text).toContain('<span class="units-metric">1.5 kg/m²</span><span class="units-imperial">0.31 lb/ft²</span>');
+    // The units cookie is read in the browser (the root layout's script sets <html data-units>), never on the server.
+    expect(metric.text).toMatch(/document\.documentElement\.dataset\.units=/);
     const imperial = await request(app.server).get('/feedstocks/orange-peel').set('Cookie', 'units=imperial');
+    expect(imperial.headers['x-nextjs-cache']).toBe('HIT');
     expect(imperial.text).toContain('0.31 lb/ft²');
+  });
+
+  it('serves the feedstock page from the page cache and drops it when an editor publishes', async () => {
+    // Left in the throwaway database: its published revision refers to it.
+    const f = await buildFeedstock({ name: 'Test cached page' });
+    const first = await request(app.server).get(`/feedstocks/${f.slug}`);
+    expect(first.status).toBe(200);
+    const again = await request(app.server).get(`/feedstocks/${f.slug}`);
+    expect(again.headers['x-nextjs-cache']).toBe('HIT');
+    expect(again.text).not.toContain('Freshly published text');
+    const editor = await buildUser({ role: 'editor' });
+    const { cookie } = await openSession(editor);
+    const edit = await request(app.server)
+      .post(`/api/feedstocks/${f.slug}/revisions`)
+      .set('Cookie', cookie)
+      .send({ body: 'Freshly published text.', baseVersion: f.version });
+    expect(edit.status).toBe(201);
+    expect(edit.body.status).toBe('published');
+    const after = await request(app.server).get(`/feedstocks/${f.slug}`);
+    expect(after.headers['x-nextjs-cache']).not.toBe('HIT');
+    expect(after.text).toContain('Freshly published text.');
   });
 
   it('answers 308 for an old address and a merged feedstock, 404 for an unknown one', async () => {
@@ -92,7 +118,8 @@ describe('feedstock pages over HTTP', () => {
       const ok =
         (/\bsrc="\/_next\//.test(attrs) && b === '') ||
         /^\(?self\.__next_f/.test(b) || // React Server Component payload (text inside is JSON-escaped)
-        (/\bid="_R_"/.test(attrs) && /^\(globalThis\["TURBOPACK"\]/.test(b)); // Turbopack's chunk loader
+        (/\bid="_R_"/.test(attrs) && /^\(globalThis\["TURBOPACK"\]/.test(b)) || // Turbopack's chunk loader
+        body === UNITS_SCRIPT; // ours: the units cookie to <html data-units> (lib/units-cookie.ts)
       expect(ok, `unexpected script: ${m[0].slice(0, 200)}`).toBe(true);
       expect(body).not.toMatch(/<\/?(script|img|svg|iframe)/i);
     }

@@ -36,6 +36,22 @@ describe('mail templates', () => {
     expect(trial.detailUrl).toBe(`${BASE}/trials/42`);
   });
 
+  it('tells the author of a rejected page edit why, with no unsubscribe link (it is not a subscription)', () => {
+    // The payload reviewPageEdit writes: { slug, name, revisionId, note, path }.
+    const e = describeEvent(
+      'edit-rejected',
+      { slug: 'orange-peel', name: 'Orange peel', revisionId: 31, note: 'Please cite a trial for the wax claim.', path: '/feedstocks/orange-peel/edit' },
+      { baseUrl: BASE, feedstock: orange },
+    );
+    const mail = composeUpdateMail(e, { reason: { kind: 'edit-author', feedstockName: 'Orange peel' }, unsubscribeUrl: null, manageUrl: null });
+    expect(mail.subject).toBe('Orange peel: your page edit was not accepted');
+    expect(mail.text).toContain('What changed: An editor did not publish the edit you suggested to the page text of Orange peel.');
+    expect(mail.text).toContain('Why: The editor\'s note: “Please cite a trial for the wax claim.”');
+    expect(mail.text).toContain(`Edit the current text again: ${BASE}/feedstocks/orange-peel/edit`);
+    expect(mail.text).toContain('You get this because you suggested an edit to the page of Orange peel on Trialbed.');
+    expect(mail.text).not.toContain('Unsubscribe');
+  });
+
   it('reads the page-edit payload of the revision service and the check-in reminder payload of the trials work', () => {
     // The shapes other services write: { slug, name, change, path, editSummary, version } and { trialId, feedstockName, dueDate, path }.
     const edit = describeEvent(

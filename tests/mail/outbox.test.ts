@@ -6,6 +6,7 @@ import { drainOutbox, processOutboxBatch } from '@/lib/mail/outbox-worker';
 import { DIGEST_CLOCK_KEY, runScheduledDigest, runWeeklyDigest } from '@/lib/services/digests';
 import { purgeUnconfirmedSubscriptions } from '@/lib/services/subscriptions';
 import { createProposal, decideProposal } from '@/lib/services/proposals';
+import { reviewPageEdit, submitPageEdit } from '@/lib/services/revisions';
 import { createTrial } from '@/lib/services/trials';
 import { buildFeedstock, buildUser } from '../support/factories';
 import {
@@ -320,6 +321,35 @@ describe('update mail through the outbox', () => {
     expect(edit.text).toContain(`${BASE}/feedstocks/${f.slug}/history`);
     expect(headerValues(edit, 'List-Unsubscribe-Post')).toEqual(['List-Unsubscribe=One-Click']);
     await OutboxMessage.destroy({ where: { recipient: owner.email! } });
+  });
+
+  it('mails followers when an editor publishes page text, and the author when an editor turns a suggestion down', async () => {
+    // Through the revision service itself: its rows are written in the same transaction as the text.
+    const f = await newFeedstock('Melon rind test');
+    const s = await follow(f, { email: testEmail('page-text') });
+    const editor = await buildUser({ role: 'editor', createdAt: new Date(Date.now() - 30 * DAY) });
+    const suggester = await buildUser({ role: 'contributor', email: testEmail('suggester'), createdAt: new Date(Date.now() - 30 * DAY) });
+    users.push(editor, suggester);
+    const published = await submitPageEdit(actorOf(editor), f.id, { body: 'Chop melon rind small; it is mostly water.', editSummary: 'chopping advice', baseVersion: f.version });
+    expect(published.status).toBe('published');
+    const suggestion = await submitPageEdit(actorOf(suggester), f.id, { body: 'Melon rind cures bin odours.', baseVersion: published.version });
+    expect(suggestion.status).toBe('pending');
+    await reviewPageEdit(actorOf(editor), suggestion.revisionId, { decision: 'reject', note: 'Please cite a trial for that.' });
+    await drainOutbox(worker());
+
+    const [edit] = mailsTo(capture.dir, s.email);
+    expect(edit.subject).toBe(`${f.name}: page text edited`);
+    expect(edit.text).toContain('chopping advice');
+    expect(headerValues(edit, 'List-Unsubscribe-Post')).toEqual(['List-Unsubscribe=One-Click']);
+    // The follower hears of the published text only; the turned-down suggestion goes to its author alone.
+    expect(mailsTo(capture.dir, s.email)).toHaveLength(1);
+    const [declined] = mailsTo(capture.dir, suggester.email!);
+    expect(declined.subject).toBe(`${f.name}: your page edit was not accepted`);
+    expect(declined.text).toContain('Please cite a trial for that.');
+    expect(declined.text).toContain(`${BASE}/feedstocks/${f.slug}/edit`);
+    expect(headerValues(declined, 'List-Unsubscribe')).toEqual([]);
+    expect(await OutboxMessage.count({ where: { feedstockId: f.id, status: 'sent', recipient: [s.email, suggester.email!] } })).toBe(2);
+    await sequelize.query('DELETE FROM feedstock_revisions WHERE feedstock_id = ?', { replacements: [f.id] });
   });
 
   it('runs the digest on its schedule once per period, and forgets addresses that never confirmed', async () => {

@@ -1,5 +1,6 @@
 import { revalidatePath } from 'next/cache';
 import { getActor } from '@/lib/auth/actor';
+import { revalidateProposal } from '@/lib/http/revalidate';
 import { errorResponse, privateJson, readJson } from '@/lib/http/responses';
 import { assertSameOrigin } from '@/lib/http/same-origin';
 import { createProposal } from '@/lib/services/proposals';
@@ -12,6 +13,7 @@ export async function POST(req: Request) {
     assertSameOrigin(req);
     const created = await createProposal(await getActor(), await readJson(req));
     revalidatePath('/review');
+    await revalidateProposal(created.id);
     return privateJson(created, 201);
   } catch (err) {
     return errorResponse(err);

@@ -17,17 +17,28 @@ import {
 import { UnitsToggle } from '@/components/feedstock/units-toggle';
 import { PageText } from '@/components/markdown/page-text';
 import { SubscribePanel } from '@/components/subscription/subscribe-panel';
-import { getActor } from '@/lib/auth/actor';
 import { VerdictHistorySection } from '@/components/proposal/verdict-history';
 import { listOpenProposals, listVerdictHistory } from '@/lib/queries/proposals';
 import { formatDate, formatNumber } from '@/lib/format';
-import { can } from '@/lib/policies';
-import { getUnits } from '@/lib/preferences';
 import { getFeedstockPageCached } from '@/lib/queries/cached';
 import { resolveFeedstockSlug } from '@/lib/queries/feedstocks';
 import { CATEGORY_LABELS } from '@/lib/vocabulary';
 
 type Props = { params: Promise<{ slug: string }> };
+
+/*
+ * The page is the same for every reader (units switch in the browser, the
+ * account links and the follow panel are client leaves), so Next.js renders it
+ * on first request and serves it from the page cache after that. Writers drop
+ * it at once (lib/http/revalidate.ts, the feedstock actions); writes made
+ * outside the app show within a minute.
+ */
+export const revalidate = 60;
+
+/** No page is rendered at build time; each is rendered on first request, then cached. */
+export function generateStaticParams(): { slug: string }[] {
+  return [];
+}
 
 /**
  * Resolves the slug; an old or merged address answers 308 to the current one.
@@ -63,10 +74,8 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
 
 export default async function FeedstockPage({ params }: Props) {
   const { slug } = await params;
-  const [page, units, actor] = await Promise.all([load(slug), getUnits(), getActor()]);
-  const canEdit = can(actor, 'feedstock.edit');
-  const canSuggest = can(actor, 'feedstock.suggest-edit');
-  // Proposals and verdict history change with every vote and decision: read them fresh.
+  const page = await load(slug);
+  // Proposals and verdict history: the vote and decision routes revalidate this page (lib/http/revalidate.ts).
   const [verdictHistory, openProposals] = await Promise.all([listVerdictHistory(page.id), listOpenProposals(page.id)]);
   const withVerdict = page.settings.filter((s) => s.published || s.evidence);
   const disagreements = page.settings.filter((s) => s.disagree);
@@ -96,9 +105,9 @@ export default async function FeedstockPage({ params }: Props) {
           </p>
         ) : null}
         <div className="flex flex-wrap items-center gap-x-6 gap-y-3">
-          <UnitsToggle units={units} />
+          <UnitsToggle />
           <p className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
-            <Link href={`/feedstocks/${page.slug}/edit`}>{canEdit ? 'Edit this page' : canSuggest ? 'Suggest an edit' : 'Edit this page'}</Link>
+            <Link href={`/feedstocks/${page.slug}/edit`}>Edit this page</Link>
             <Link href={`/feedstocks/${page.slug}/history`}>Page history</Link>
             <a href={`#subscribe-${page.id}-heading`}>Follow by e-mail</a>
             <a href={`/feedstocks/${page.slug}/feed.xml`}>Updates feed (Atom)</a>
@@ -114,7 +123,7 @@ export default async function FeedstockPage({ params }: Props) {
         {withVerdict.length ? (
           <div className="grid gap-4 md:grid-cols-3">
             {withVerdict.map((s) => (
-              <PublishedVerdictCard key={s.setting} section={s} units={units} />
+              <PublishedVerdictCard key={s.setting} section={s} />
             ))}
           </div>
         ) : (
@@ -134,7 +143,7 @@ export default async function FeedstockPage({ params }: Props) {
         </p>
       </section>
 
-      <VerdictHistorySection slug={page.slug} history={verdictHistory} open={openProposals} canPropose={can(actor, 'proposal.create')} />
+      <VerdictHistorySection slug={page.slug} history={verdictHistory} open={openProposals} />
 
       <HandlingCautions codes={page.handlingCautions} />
 
@@ -142,14 +151,14 @@ export default async function FeedstockPage({ params }: Props) {
         <h2 id="cautions-heading" className="text-2xl">
           Cautions from the trials
         </h2>
-        <EvidenceCautions settings={page.settings} units={units} />
+        <EvidenceCautions settings={page.settings} />
       </section>
 
       <section aria-labelledby="prep-heading" className="space-y-3">
         <h2 id="prep-heading" className="text-2xl">
           Preparation
         </h2>
-        <PreparationAdvice settings={page.settings} units={units} />
+        <PreparationAdvice settings={page.settings} />
       </section>
 
       <section aria-labelledby="text-heading" className="space-y-3">
@@ -171,7 +180,7 @@ export default async function FeedstockPage({ params }: Props) {
         {page.settings.some((s) => s.evidence) ? (
           <div className="grid gap-4 lg:grid-cols-2">
             {page.settings.map((s) => (
-              <EvidenceDerivation key={s.setting} section={s} units={units} />
+              <EvidenceDerivation key={s.setting} section={s} />
             ))}
           </div>
         ) : (
@@ -183,8 +192,8 @@ export default async function FeedstockPage({ params }: Props) {
         <h2 id="trials-heading" className="text-2xl">
           Trials
         </h2>
-        <TrialsTable trials={page.trials} units={units} name={page.name} />
-        <OutcomeCharts page={page} units={units} />
+        <TrialsTable trials={page.trials} name={page.name} />
+        <OutcomeCharts page={page} />
       </section>
 
       <section aria-labelledby="km-heading" className="space-y-4">

@@ -1,5 +1,6 @@
 import { getActor } from '@/lib/auth/actor';
 import { parseId } from '@/lib/http/params';
+import { revalidateProposal } from '@/lib/http/revalidate';
 import { errorResponse, privateJson, readJson } from '@/lib/http/responses';
 import { assertSameOrigin } from '@/lib/http/same-origin';
 import { resubmitProposal } from '@/lib/services/proposals';
@@ -12,7 +13,9 @@ export async function POST(req: Request, ctx: { params: Promise<{ id: string }> 
     assertSameOrigin(req);
     const id = parseId((await ctx.params).id);
     const body = (await readJson(req)) ?? {};
-    return privateJson(await resubmitProposal(await getActor(), id, body), 201);
+    const created = await resubmitProposal(await getActor(), id, body);
+    await revalidateProposal(created.id);
+    return privateJson(created, 201);
   } catch (err) {
     return errorResponse(err);
   }

@@ -1,5 +1,6 @@
 import { getActor } from '@/lib/auth/actor';
 import { parseId } from '@/lib/http/params';
+import { revalidateProposal } from '@/lib/http/revalidate';
 import { errorResponse, privateJson, readJson } from '@/lib/http/responses';
 import { assertSameOrigin } from '@/lib/http/same-origin';
 import { castVote } from '@/lib/services/proposals';
@@ -11,7 +12,9 @@ export async function POST(req: Request, ctx: { params: Promise<{ id: string }> 
   try {
     assertSameOrigin(req);
     const id = parseId((await ctx.params).id);
-    return privateJson({ tally: await castVote(await getActor(), id, await readJson(req)) });
+    const tally = await castVote(await getActor(), id, await readJson(req));
+    await revalidateProposal(id);
+    return privateJson({ tally });
   } catch (err) {
     return errorResponse(err);
   }
