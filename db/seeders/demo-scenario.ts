@@ -1998,3 +1998,25 @@ export const DEMO_REQUESTS: DemoFeedstockRequest[] = [
     createdAt: '2026-11-21T10:35:00+00:00',
   },
 ];
+
+// ---------------------------------------------------------------------------
+// Subscriptions: who follows which feedstock by e-mail (all confirmed)
+// ---------------------------------------------------------------------------
+
+/** A demo follower: a demo person by key, or a visitor's address with no account. */
+export interface DemoSubscription {
+  feedstockSlug: string;
+  personKey: string | null;
+  email: string | null;
+  mode: 'immediate' | 'digest';
+  confirmedAt: string;
+}
+
+export const DEMO_SUBSCRIPTIONS: DemoSubscription[] = [
+  // The demo reader account follows two pages, so /account shows how following looks.
+  { feedstockSlug: 'orange-peel', personKey: 'tobiah', email: null, mode: 'immediate', confirmedAt: '2026-10-02T19:40:00+01:00' },
+  { feedstockSlug: 'coffee-grounds', personKey: 'tobiah', email: null, mode: 'digest', confirmedAt: '2026-10-02T19:42:00+01:00' },
+  { feedstockSlug: 'horse-manure', personKey: 'hetty', email: null, mode: 'immediate', confirmedAt: '2026-09-12T08:05:00+01:00' },
+  // A visitor who followed by e-mail without an account (double opt-in, confirmed).
+  { feedstockSlug: 'banana-peel', personKey: null, email: 'wren.ashby@example.org', mode: 'digest', confirmedAt: '2026-11-03T21:10:00+00:00' },
+];

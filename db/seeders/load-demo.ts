@@ -12,6 +12,7 @@ import {
   Proposal,
   ProposalTrial,
   PublishedVerdict,
+  Subscription,
   Trial,
   User,
   VerdictHistory,
@@ -28,6 +29,7 @@ import {
   DEMO_PROPOSALS,
   DEMO_REQUESTS,
   DEMO_SITES,
+  DEMO_SUBSCRIPTIONS,
   DEMO_TRIALS,
   type DemoTrial,
 } from './demo-scenario';
@@ -268,6 +270,21 @@ export async function loadDemoScenario(opts: { storage?: Storage } = {}): Promis
         );
       }
 
+      for (const sub of DEMO_SUBSCRIPTIONS) {
+        const person = sub.personKey ? people.get(sub.personKey)! : null;
+        await Subscription.create(
+          {
+            feedstockId: feedstocks.get(sub.feedstockSlug)!.id,
+            userId: person?.id ?? null,
+            email: person?.email ?? sub.email!,
+            mode: sub.mode,
+            confirmedAt: new Date(sub.confirmedAt),
+            createdAt: new Date(sub.confirmedAt),
+          },
+          { transaction },
+        );
+      }
+
       for (const f of feedstocks.values()) await recomputeFeedstock(f.id, transaction);
 
       return {
@@ -281,6 +298,7 @@ export async function loadDemoScenario(opts: { storage?: Storage } = {}): Promis
           proposals: DEMO_PROPOSALS.length,
           votes: voteCount,
           requests: DEMO_REQUESTS.length,
+          subscriptions: DEMO_SUBSCRIPTIONS.length,
         },
       };
     });

@@ -7,7 +7,7 @@ import { DEMO_MARKER, loadDemoScenario } from '@/db/seeders/load-demo';
 import { DEMO_FEEDSTOCKS, DEMO_PEOPLE, DEMO_TRIALS } from '@/db/seeders/demo-scenario';
 
 const TABLES = ['users', 'feedstocks', 'feedstock_aliases', 'trials', 'check_ins', 'photos', 'proposals', 'votes', 'published_verdicts',
-  'verdict_history', 'feedstock_requests', 'evidence_aggregates', 'evidence_verdicts'];
+  'verdict_history', 'feedstock_requests', 'evidence_aggregates', 'evidence_verdicts', 'subscriptions'];
 
 async function counts() {
   const out: Record<string, number> = {};
