@@ -140,6 +140,12 @@ describe('wiki pages in Chromium', () => {
       return { context, page: await context.newPage() };
     };
 
+    /**
+     * Waits until the page is interactive: the header's "Sign out" appears only after React has hydrated the page and
+     * asked /api/account from the browser. Typing earlier races hydration, which can reset the box under the cursor.
+     */
+    const hydrated = (page: Page) => page.getByRole('button', { name: 'Sign out' }).waitFor();
+
     /** axe (no serious or critical findings) and a full-page screenshot at each width. */
     const checkAtWidths = async (page: Page, name: string) => {
       for (const width of WIDTHS) {
@@ -188,9 +194,11 @@ describe('wiki pages in Chromium', () => {
       const c = await signedIn('contributor', 1280);
       await c.page.goto(`${journeyApp.url}/feedstocks/${feedstock.slug}/edit`, { waitUntil: 'load' });
       await c.page.getByRole('heading', { level: 1, name: `Suggest an edit to the page about ${feedstock.name.toLowerCase()}` }).waitFor();
+      await hydrated(c.page);
       const preview = c.page.getByRole('region', { name: 'Preview' });
       await preview.getByText(OLD_LINE).waitFor();
       await c.page.getByLabel('Page text').fill(NEW_TEXT);
+      expect(await c.page.getByLabel('Page text').inputValue()).toBe(NEW_TEXT);
       // The preview renders the markdown as the page will: bold, a heading (one level below the page's h2s), a list.
       await preview.getByText(NEW_LINE).waitFor();
       expect(await preview.locator('strong').innerText()).toBe('walnut');
@@ -214,6 +222,7 @@ describe('wiki pages in Chromium', () => {
       const e = await signedIn('editor', 1280);
       await e.page.goto(`${journeyApp.url}/review/edits`, { waitUntil: 'load' });
       await e.page.getByRole('heading', { level: 1, name: 'Suggested edits' }).waitFor();
+      await hydrated(e.page);
       const item = e.page.getByRole('listitem').filter({ has: e.page.getByRole('link', { name: feedstock.name, exact: true }) });
       await item.getByText('“Smaller pieces; what to watch for”').waitFor();
       const suggested = item.getByRole('region', { name: `Suggested changes to ${feedstock.name}` });
@@ -246,7 +255,7 @@ describe('wiki pages in Chromium', () => {
       await v2diff.locator('del', { hasText: OLD_LINE }).waitFor();
       await v2diff.locator('ins', { hasText: 'no bigger than a **walnut**' }).waitFor();
       expect(await entry(2).getByRole('button', { name: /Revert/ }).count()).toBe(0); // the current version has no revert
-      await e.page.getByRole('button', { name: 'Sign out' }).waitFor(); // the header's account links load from the browser
+      await hydrated(e.page);
       await checkAtWidths(e.page, 'edit-journey-history');
       await e.page.setViewportSize({ width: 1280, height: 900 });
       await entry(1).getByRole('button', { name: 'Revert to version 1' }).click();
