@@ -57,15 +57,21 @@ export async function submitPageEditAction(_prev: EditFormState, formData: FormD
   redirect(`/feedstocks/${slug}`);
 }
 
-/** An editor approves or rejects a suggested edit. */
+/**
+ * An editor approves or rejects a suggested edit; goes back to the queue,
+ * which says what was decided (the decided edit leaves the list, and its
+ * form with it, so the form cannot show the outcome itself).
+ */
 export async function reviewEditAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
+  let decided: number;
   try {
     const r = await reviewPageEdit(await getActor(), idOf(formData.get('revisionId')), fields(formData));
     if (r.status === 'published') touched(r.feedstockId);
-    return { ok: true, message: r.status === 'published' ? `Published as version ${r.version}.` : 'Rejected; the author has been told why.' };
+    decided = r.revisionId;
   } catch (err) {
     return toActionState(err);
   }
+  redirect(`/review/edits?decided=${decided}`);
 }
 
 /** An editor reverts the page text to an earlier published revision. */

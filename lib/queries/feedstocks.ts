@@ -563,6 +563,14 @@ export async function listPendingEdits(opts: { feedstockId?: number } = {}): Pro
   });
 }
 
+/** What became of a suggested edit an editor decided (for the queue's confirmation). Null if unknown or still pending. */
+export async function getDecidedEdit(id: number): Promise<{ feedstockName: string; feedstockSlug: string; status: 'published' | 'rejected'; version: number } | null> {
+  const r = await FeedstockRevision.findByPk(id, { include: [{ model: Feedstock, attributes: ['slug', 'name'] }] });
+  if (!r || r.status === 'pending') return null;
+  const f = (r as unknown as { feedstock: Feedstock }).feedstock;
+  return { feedstockName: f.name, feedstockSlug: f.slug, status: r.status, version: r.baseVersion + 1 };
+}
+
 /** The page text and version an editor starts from. Null for an unknown or merged feedstock. */
 export async function getEditableText(id: number): Promise<{ id: number; slug: string; name: string; pageText: string; version: number } | null> {
   const f = await Feedstock.findByPk(id, { attributes: ['id', 'slug', 'name', 'pageText', 'version', 'mergedIntoId'] });

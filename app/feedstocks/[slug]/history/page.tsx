@@ -60,6 +60,8 @@ export default async function HistoryPage({ params }: Props) {
           <li key={e.id} className="space-y-3 rounded-lg border border-line bg-surface-raised p-4">
             <h2 className="text-xl">
               Version {e.version}
+              {/* A space, so the heading reads "Version 2 current", not "Version 2current". */}
+              {e.isCurrent ? ' ' : null}
               {e.isCurrent ? <span className="ml-2 rounded-full bg-accent-soft px-2 py-0.5 font-sans text-sm font-semibold text-accent-strong">current</span> : null}
             </h2>
             <p>
