@@ -1,34 +1,25 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { notFound, permanentRedirect } from 'next/navigation';
 import { DiffView } from '@/components/feedstock/diff-view';
 import { RevertForm } from '@/components/feedstock/revert-form';
 import { getActor } from '@/lib/auth/actor';
+import { loadEditableFeedstock } from '@/lib/feedstocks/editable-page';
 import { formatDate } from '@/lib/format';
 import { can } from '@/lib/policies';
-import { getEditableText, listRevisionHistory, resolveFeedstockSlug } from '@/lib/queries/feedstocks';
+import { listRevisionHistory } from '@/lib/queries/feedstocks';
 
 export const dynamic = 'force-dynamic';
 
 type Props = { params: Promise<{ slug: string }> };
 
-async function load(slug: string) {
-  const resolved = await resolveFeedstockSlug(slug);
-  if (resolved.kind === 'redirect') permanentRedirect(`/feedstocks/${resolved.slug}/history`);
-  if (resolved.kind === 'missing') notFound();
-  const f = await getEditableText(resolved.id);
-  if (!f) notFound();
-  return f;
-}
-
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
-  const f = await load((await params).slug);
+  const f = await loadEditableFeedstock((await params).slug, 'history');
   return { title: `History: ${f.name}`, description: `Every version of the page text about ${f.name.toLowerCase()}, with what changed.` };
 }
 
 export default async function HistoryPage({ params }: Props) {
   const { slug } = await params;
-  const f = await load(slug);
+  const f = await loadEditableFeedstock(slug, 'history');
   const [history, actor] = await Promise.all([listRevisionHistory(f.id), getActor()]);
   const canRevert = can(actor, 'feedstock.edit');
   const canReview = can(actor, 'feedstock.review-edit');

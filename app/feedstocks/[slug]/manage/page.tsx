@@ -1,11 +1,11 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { notFound, permanentRedirect } from 'next/navigation';
 import { AccessNote } from '@/components/layout/access-note';
 import { MergeFeedstockForm, RenameFeedstockForm } from '@/components/feedstock/manage-forms';
 import { getActor } from '@/lib/auth/actor';
+import { loadEditableFeedstock } from '@/lib/feedstocks/editable-page';
 import { can } from '@/lib/policies';
-import { getEditableText, listFeedstockChoices, resolveFeedstockSlug } from '@/lib/queries/feedstocks';
+import { listFeedstockChoices } from '@/lib/queries/feedstocks';
 
 export const dynamic = 'force-dynamic';
 
@@ -13,11 +13,7 @@ export const metadata: Metadata = { title: 'Manage feedstock', robots: { index: 
 
 export default async function ManagePage({ params }: { params: Promise<{ slug: string }> }) {
   const { slug } = await params;
-  const resolved = await resolveFeedstockSlug(slug);
-  if (resolved.kind === 'redirect') permanentRedirect(`/feedstocks/${resolved.slug}/manage`);
-  if (resolved.kind === 'missing') notFound();
-  const [f, actor] = await Promise.all([getEditableText(resolved.id), getActor()]);
-  if (!f) notFound();
+  const [f, actor] = await Promise.all([loadEditableFeedstock(slug, 'manage'), getActor()]);
   const canRename = can(actor, 'feedstock.rename');
   const canMerge = can(actor, 'feedstock.merge');
   return (
