@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { AccessNote } from '@/components/layout/access-note';
+import { AccessPage } from '@/components/layout/access-note';
 import { DiffView } from '@/components/feedstock/diff-view';
 import { ReviewEditForm } from '@/components/feedstock/review-forms';
 import { getActor } from '@/lib/auth/actor';
@@ -15,12 +15,7 @@ export const metadata: Metadata = { title: 'Suggested edits', description: 'Page
 export default async function ReviewEditsPage() {
   const actor = await getActor();
   if (!can(actor, 'feedstock.review-edit')) {
-    return (
-      <div className="space-y-6">
-        <h1 className="text-3xl">Suggested edits</h1>
-        <AccessNote actor={actor} who="editors" callbackUrl="/review/edits" />
-      </div>
-    );
+    return <AccessPage title="Suggested edits" actor={actor} who="editors" callbackUrl="/review/edits" />;
   }
   const edits = await listPendingEdits();
   return (
