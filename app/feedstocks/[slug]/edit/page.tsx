@@ -1,8 +1,8 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
 import { PageEditForm } from '@/components/feedstock/page-edit-form';
 import { PageText } from '@/components/markdown/page-text';
 import { LinkButton } from '@/components/ui/link-button';
+import { SubpageBreadcrumb } from '@/components/feedstock/subpage-breadcrumb';
 import { getActor } from '@/lib/auth/actor';
 import { loadEditableFeedstock } from '@/lib/feedstocks/editable-page';
 import { can } from '@/lib/policies';
@@ -23,9 +23,7 @@ export default async function EditPage({ params }: Props) {
   const canSuggest = can(actor, 'feedstock.suggest-edit');
   return (
     <div className="space-y-6">
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link href={`/feedstocks/${f.slug}`}>{f.name}</Link> <span aria-hidden="true">›</span> Edit
-      </nav>
+      <SubpageBreadcrumb feedstock={f} current="Edit" />
       <h1 className="text-3xl">{canEdit ? 'Edit' : canSuggest ? 'Suggest an edit to' : 'Edit'} the page about {f.name.toLowerCase()}</h1>
       {canSuggest ? (
         <PageEditForm feedstockId={f.id} initialText={f.pageText} baseVersion={f.version} mode={canEdit ? 'publish' : 'suggest'} />

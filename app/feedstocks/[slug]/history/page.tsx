@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { DiffView } from '@/components/feedstock/diff-view';
 import { RevertForm } from '@/components/feedstock/revert-form';
+import { SubpageBreadcrumb } from '@/components/feedstock/subpage-breadcrumb';
 import { getActor } from '@/lib/auth/actor';
 import { loadEditableFeedstock } from '@/lib/feedstocks/editable-page';
 import { formatDate } from '@/lib/format';
@@ -25,9 +26,7 @@ export default async function HistoryPage({ params }: Props) {
   const canReview = can(actor, 'feedstock.review-edit');
   return (
     <div className="space-y-6">
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link href={`/feedstocks/${f.slug}`}>{f.name}</Link> <span aria-hidden="true">›</span> History
-      </nav>
+      <SubpageBreadcrumb feedstock={f} current="History" />
       <h1 className="text-3xl">History of the page about {f.name.toLowerCase()}</h1>
       <p className="max-w-prose">
         {history.entries.length} published {history.entries.length === 1 ? 'version' : 'versions'}, newest first. A revert never deletes anything:

@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
 import { AccessNote } from '@/components/layout/access-note';
 import { MergeFeedstockForm, RenameFeedstockForm } from '@/components/feedstock/manage-forms';
+import { SubpageBreadcrumb } from '@/components/feedstock/subpage-breadcrumb';
 import { getActor } from '@/lib/auth/actor';
 import { loadEditableFeedstock } from '@/lib/feedstocks/editable-page';
 import { can } from '@/lib/policies';
@@ -18,9 +18,7 @@ export default async function ManagePage({ params }: { params: Promise<{ slug: s
   const canMerge = can(actor, 'feedstock.merge');
   return (
     <div className="space-y-8">
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link href={`/feedstocks/${f.slug}`}>{f.name}</Link> <span aria-hidden="true">›</span> Manage
-      </nav>
+      <SubpageBreadcrumb feedstock={f} current="Manage" />
       <h1 className="text-3xl">Manage {f.name.toLowerCase()}</h1>
       {!canRename && !canMerge ? <AccessNote actor={actor} who="editors" callbackUrl={`/feedstocks/${f.slug}/manage`} /> : null}
       <div className="grid max-w-4xl gap-8 md:grid-cols-2">
