@@ -1,21 +1,11 @@
 'use client';
 
-import { useEffect } from 'react';
 import Link from 'next/link';
+import { useLogError, type ErrorBoundaryProps } from '@/components/layout/error-boundary';
 import { Button } from '@/components/ui/button';
 
-export default function ErrorPage({
-  error,
-  retry,
-}: {
-  error: unknown;
-  /** Re-fetches and re-renders the failed segment. */
-  retry: () => void;
-  reset: () => void;
-}) {
-  useEffect(() => {
-    console.error(error);
-  }, [error]);
+export default function ErrorPage({ error, retry }: ErrorBoundaryProps) {
+  useLogError(error);
 
   const digest =
     error instanceof Error && 'digest' in error && typeof error.digest === 'string'

@@ -1,22 +1,12 @@
 'use client';
 
-import { useEffect } from 'react';
+import { useLogError, type ErrorBoundaryProps } from '@/components/layout/error-boundary';
 import { bodyFont, headingFont } from '@/fonts';
 import './globals.css';
 
 /** Replaces the root layout when it fails, so it brings its own document and styles. */
-export default function GlobalError({
-  error,
-  retry,
-}: {
-  error: unknown;
-  /** Re-fetches and re-renders the app. */
-  retry: () => void;
-  reset: () => void;
-}) {
-  useEffect(() => {
-    console.error(error);
-  }, [error]);
+export default function GlobalError({ error, retry }: ErrorBoundaryProps) {
+  useLogError(error);
 
   return (
     <html lang="en" className={`${bodyFont.variable} ${headingFont.variable}`}>

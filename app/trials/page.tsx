@@ -4,7 +4,9 @@ import { SETTINGS, SETTING_LABELS } from '@/components/layout/vocabulary';
 import { TrialList } from '@/components/trial/trial-list';
 import { STATUS_LABELS } from '@/components/trial/vocabulary';
 import { buttonClasses } from '@/components/ui/button';
+import { FilterSelect, optionsOf } from '@/components/ui/filter-select';
 import { LinkButton } from '@/components/ui/link-button';
+import { Pagination } from '@/components/ui/pagination';
 import { listTrialFilterOptions, listTrials } from '@/lib/queries/trials';
 import { contributorName } from '@/lib/trials/contributor';
 import { TRIAL_STATUSES, TrialListQuerySchema, type TrialListQuery } from '@/lib/validation/trials';
@@ -50,58 +52,24 @@ export default async function TrialsPage({ searchParams }: { searchParams: Promi
       </header>
 
       <form method="get" action="/trials" className="grid grid-cols-2 gap-3 rounded-lg border border-line bg-surface-raised p-4 lg:grid-cols-[repeat(4,minmax(0,1fr))_auto]" aria-label="Filter trials">
-        <div className="flex flex-col gap-1">
-          <label htmlFor="filter-feedstock" className="font-semibold">
-            Feedstock
-          </label>
-          <select id="filter-feedstock" name="feedstock" defaultValue={q.feedstock ?? ''} className={selectClass}>
-            <option value="">All feedstocks</option>
-            {options.feedstocks.map((f) => (
-              <option key={f.slug} value={f.slug}>
-                {f.name}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="filter-setting" className="font-semibold">
-            Setting
-          </label>
-          <select id="filter-setting" name="setting" defaultValue={q.setting ?? ''} className={selectClass}>
-            <option value="">All settings</option>
-            {SETTINGS.map((s) => (
-              <option key={s} value={s}>
-                {SETTING_LABELS[s]}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="filter-status" className="font-semibold">
-            Status
-          </label>
-          <select id="filter-status" name="status" defaultValue={q.status ?? ''} className={selectClass}>
-            <option value="">Any status</option>
-            {TRIAL_STATUSES.map((s) => (
-              <option key={s} value={s}>
-                {STATUS_LABELS[s]}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="filter-contributor" className="font-semibold">
-            Contributor
-          </label>
-          <select id="filter-contributor" name="contributor" defaultValue={q.contributor ?? ''} className={selectClass}>
-            <option value="">Anyone</option>
-            {options.contributors.map((c) => (
-              <option key={c} value={c}>
-                {contributorName(c)}
-              </option>
-            ))}
-          </select>
-        </div>
+        <FilterSelect
+          name="feedstock"
+          label="Feedstock"
+          value={q.feedstock ?? ''}
+          anyLabel="All feedstocks"
+          options={options.feedstocks.map((f) => ({ value: f.slug, label: f.name }))}
+          selectClassName={selectClass}
+        />
+        <FilterSelect name="setting" label="Setting" value={q.setting ?? ''} anyLabel="All settings" options={optionsOf(SETTINGS, SETTING_LABELS)} selectClassName={selectClass} />
+        <FilterSelect name="status" label="Status" value={q.status ?? ''} anyLabel="Any status" options={optionsOf(TRIAL_STATUSES, STATUS_LABELS)} selectClassName={selectClass} />
+        <FilterSelect
+          name="contributor"
+          label="Contributor"
+          value={q.contributor ?? ''}
+          anyLabel="Anyone"
+          options={options.contributors.map((c) => ({ value: c, label: contributorName(c) }))}
+          selectClassName={selectClass}
+        />
         <div className="col-span-2 flex items-end gap-2 lg:col-span-1">
           <button type="submit" className={buttonClasses('primary')}>
             Show
@@ -121,23 +89,7 @@ export default async function TrialsPage({ searchParams }: { searchParams: Promi
 
       <TrialList rows={page.rows} caption={`Trials ${from}–${to} of ${page.total}`} />
 
-      {page.pageCount > 1 ? (
-        <nav aria-label="Pages" className="flex flex-wrap items-center gap-2">
-          {page.page > 1 ? (
-            <Link href={hrefWith(q, { page: page.page - 1 })} className={buttonClasses('secondary')} rel="prev">
-              Previous
-            </Link>
-          ) : null}
-          <span className="px-2">
-            Page {page.page} of {page.pageCount}
-          </span>
-          {page.page < page.pageCount ? (
-            <Link href={hrefWith(q, { page: page.page + 1 })} className={buttonClasses('secondary')} rel="next">
-              Next
-            </Link>
-          ) : null}
-        </nav>
-      ) : null}
+      <Pagination page={page.page} pageCount={page.pageCount} hrefFor={(n) => hrefWith(q, { page: n })} />
 
       <p className="text-sm text-ink-muted">
         Open data: <a href="/api/export/trials.csv">all trials as CSV</a>, <a href="/api/export/trials.csv?table=check-ins">their check-ins as CSV</a>,{' '}

@@ -1,18 +1,9 @@
 import type { ReactNode } from 'react';
 import { cx } from '@/components/ui/class-names';
+import { VERDICT_LABELS, type Verdict } from '@/lib/vocabulary';
 
-/** Verdict codes, in the order pages list them (PRODUCT.md, core vocabulary). */
-export const VERDICTS = ['feed', 'limit', 'prepare', 'avoid', 'unsettled'] as const;
-export type Verdict = (typeof VERDICTS)[number];
-
-/** The label shown for each verdict — the words readers see everywhere. */
-export const VERDICT_LABELS: Readonly<Record<Verdict, string>> = {
-  feed: 'Feed freely',
-  limit: 'Small amounts only',
-  prepare: 'Prepare first',
-  avoid: 'Keep out',
-  unsettled: 'Not enough evidence',
-};
+/** Verdict codes (in the order pages list them), their type and labels: one list in lib/vocabulary.ts. */
+export { VERDICTS, VERDICT_LABELS, type Verdict } from '@/lib/vocabulary';
 
 /** Certainty grades (terms from the GRADE approach), strongest first. */
 export const CERTAINTY_GRADES = ['high', 'moderate', 'low', 'very low'] as const;

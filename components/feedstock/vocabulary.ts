@@ -4,21 +4,14 @@
  * database and the engine (PRODUCT.md vocabulary).
  */
 
-export const PREPARATION_LABELS: Readonly<Record<string, string>> = {
-  raw: 'Raw',
-  chopped: 'Chopped',
-  shredded: 'Shredded or mulched',
-  'frozen-thawed': 'Frozen and thawed',
-  cooked: 'Cooked',
-  soaked: 'Soaked',
-  dried: 'Dried',
-  'pre-composted': 'Pre-composted',
-  aged: 'Aged',
-};
+import { PREPARATION_LABELS as PREPARATIONS, STATUS_LABELS, type Outcome } from '@/components/trial/vocabulary';
 
-export const OUTCOMES = ['consumed', 'partial', 'rejected', 'harm'] as const;
-export type OutcomeCode = (typeof OUTCOMES)[number];
+/** Preparation labels (one list: components/trial/vocabulary.ts), looked up by any stored code. */
+export const PREPARATION_LABELS: Readonly<Record<string, string>> = PREPARATIONS;
 
+export type OutcomeCode = Outcome;
+
+/** Outcome labels on feedstock pages; "Rejected" here where trial pages say "Left alone". */
 export const OUTCOME_LABELS: Readonly<Record<OutcomeCode, string>> = {
   consumed: 'Consumed',
   partial: 'Partly eaten',
@@ -26,11 +19,8 @@ export const OUTCOME_LABELS: Readonly<Record<OutcomeCode, string>> = {
   harm: 'Harm',
 };
 
-export const TRIAL_STATUS_LABELS: Readonly<Record<string, string>> = {
-  running: 'Running',
-  closed: 'Closed',
-  abandoned: 'Abandoned',
-};
+/** Trial status labels (one list: components/trial/vocabulary.ts), looked up by any stored code. */
+export const TRIAL_STATUS_LABELS: Readonly<Record<string, string>> = STATUS_LABELS;
 
 /** Published caution codes: the engine's adverse events plus trade cautions it cannot read off check-ins. */
 export const CAUTION_LABELS: Readonly<Record<string, string>> = {

@@ -13,3 +13,13 @@ export function AccessNote({ actor, who, callbackUrl }: { actor: Actor; who: str
     </section>
   );
 }
+
+/** A whole page for a visitor whose role does not open it: the page's title, then the access note. */
+export function AccessPage({ title, actor, who, callbackUrl }: { title: string; actor: Actor; who: string; callbackUrl: string }) {
+  return (
+    <div className="space-y-6">
+      <h1 className="text-3xl">{title}</h1>
+      <AccessNote actor={actor} who={who} callbackUrl={callbackUrl} />
+    </div>
+  );
+}

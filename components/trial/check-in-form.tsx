@@ -6,7 +6,7 @@ import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import { zodFieldErrors, type ActionState, type FieldErrors } from '@/lib/errors';
 import { CheckInCreateSchema, checkInInputFromForm } from '@/lib/validation/trials';
-import { CheckboxField, controlId, ErrorSummary, SelectField, TextareaField } from './form-controls';
+import { CheckboxField, controlId, ErrorSummary, optionsFromLabels, SelectField, TextareaField } from './form-controls';
 import { PhotoInput, UploadList, usePhotoUploads } from './photo-uploads';
 import { ACTIVITY_LABELS, ACTIVITY_LEVELS, MOISTURE_LABELS, PEST_LABELS, SMELL_LABELS } from './vocabulary';
 
@@ -30,7 +30,6 @@ const LABELS: Record<string, string> = {
   notes: 'Notes',
 };
 const SHARE_PRESETS = [100, 75, 50, 25, 10, 0];
-const opts = <K extends string>(labels: Record<K, string>) => (Object.keys(labels) as K[]).map((value) => ({ value, label: labels[value] }));
 
 /**
  * A check-in, sized for a phone in the garden: big choices, the camera as the
@@ -170,8 +169,8 @@ export function CheckInForm({ trialId, startDate, today, action }: CheckInFormPr
       </fieldset>
 
       <div className="grid gap-4 sm:grid-cols-3">
-        <SelectField label="Smell" name="smell" options={opts(SMELL_LABELS)} defaultValue="earthy" />
-        <SelectField label="Moisture" name="moisture" options={opts(MOISTURE_LABELS)} defaultValue="damp" />
+        <SelectField label="Smell" name="smell" options={optionsFromLabels(SMELL_LABELS)} defaultValue="earthy" />
+        <SelectField label="Moisture" name="moisture" options={optionsFromLabels(MOISTURE_LABELS)} defaultValue="damp" />
         <Field label="pH" name="ph" id={controlId('ph')} inputMode="decimal" hint="Of a 1:5 slurry with water. Optional." error={err('ph')} />
       </div>
 

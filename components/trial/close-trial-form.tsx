@@ -5,11 +5,9 @@ import { Button } from '@/components/ui/button';
 import { zodFieldErrors, type ActionState, type FieldErrors } from '@/lib/errors';
 import { closeInputFromForm, TrialCloseSchema } from '@/lib/validation/trials';
 import { controlId, ErrorSummary, TextareaField } from './form-controls';
-import { OUTCOME_DESCRIPTIONS, OUTCOME_LABELS, type Outcome } from './vocabulary';
+import { OUTCOME_DESCRIPTIONS, OUTCOME_LABELS, OUTCOMES, type Outcome } from './vocabulary';
 
 type State = ActionState & { values?: Record<string, string | string[]> };
-
-const OUTCOMES: Outcome[] = ['consumed', 'partial', 'rejected', 'harm'];
 
 /**
  * Closing a trial: the engine's proposed outcome is preselected; the owner

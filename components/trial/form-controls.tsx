@@ -41,6 +41,11 @@ export function controlId(name: string): string {
 
 export type Option = { value: string; label: string };
 
+/** Options from a label map, in the map's order. */
+export function optionsFromLabels<K extends string>(labels: Readonly<Record<K, string>>): Option[] {
+  return (Object.keys(labels) as K[]).map((value) => ({ value, label: labels[value] }));
+}
+
 export type SelectFieldProps = Omit<SelectHTMLAttributes<HTMLSelectElement>, 'id' | 'name'> & {
   label: string;
   name: string;

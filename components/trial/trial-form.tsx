@@ -7,7 +7,7 @@ import { SETTINGS, SETTING_DESCRIPTIONS, SETTING_LABELS } from '@/components/lay
 import { zodFieldErrors, type ActionState, type FieldErrors } from '@/lib/errors';
 import { TrialCreateSchema, TrialUpdateSchema, trialInputFromForm } from '@/lib/validation/trials';
 import { FeedstockCombobox, type FeedstockOption } from './feedstock-combobox';
-import { CheckboxField, controlId, ErrorSummary, QuantityField, SelectField, TextareaField } from './form-controls';
+import { CheckboxField, controlId, ErrorSummary, optionsFromLabels, QuantityField, SelectField, TextareaField } from './form-controls';
 import {
   AREA_UNIT_LABELS,
   LENGTH_UNIT_LABELS,
@@ -37,12 +37,11 @@ export type TrialFormProps = {
   fixedFeedstock?: FeedstockOption;
 };
 
-const opts = <K extends string>(labels: Record<K, string>) => (Object.keys(labels) as K[]).map((value) => ({ value, label: labels[value] }));
-const massUnits = opts(MASS_UNIT_LABELS);
-const lengthUnits = opts(LENGTH_UNIT_LABELS);
+const massUnits = optionsFromLabels(MASS_UNIT_LABELS);
+const lengthUnits = optionsFromLabels(LENGTH_UNIT_LABELS);
 const doseUnits = [
   { group: 'Mass', options: massUnits },
-  { group: 'Volume', options: opts(VOLUME_UNIT_LABELS) },
+  { group: 'Volume', options: optionsFromLabels(VOLUME_UNIT_LABELS) },
 ];
 
 /** Names shown in the error summary. */
@@ -118,8 +117,8 @@ export function TrialForm({ mode, action, feedstocks, pairable, initial, version
           <FeedstockCombobox feedstocks={feedstocks} defaultId={values.feedstockId ? Number(values.feedstockId) : null} error={err('feedstockId')} onChange={setFeedstock} />
         )}
         <div className="grid gap-4 sm:grid-cols-2">
-          <SelectField label="Preparation" name="preparation" options={opts(PREPARATION_LABELS)} defaultValue={values.preparation} placeholder="Choose…" required error={err('preparation')} />
-          <SelectField label="Where it came from" name="provenance" options={opts(PROVENANCE_LABELS)} defaultValue={values.provenance} placeholder="Choose…" required error={err('provenance')} hint="Store-bought fruit can carry a wax coating." />
+          <SelectField label="Preparation" name="preparation" options={optionsFromLabels(PREPARATION_LABELS)} defaultValue={values.preparation} placeholder="Choose…" required error={err('preparation')} />
+          <SelectField label="Where it came from" name="provenance" options={optionsFromLabels(PROVENANCE_LABELS)} defaultValue={values.provenance} placeholder="Choose…" required error={err('provenance')} hint="Store-bought fruit can carry a wax coating." />
         </div>
         <div className="grid gap-4 sm:grid-cols-2">
           <QuantityField
@@ -158,7 +157,7 @@ export function TrialForm({ mode, action, feedstocks, pairable, initial, version
           {err('setting') ? <p className="text-sm font-semibold text-danger">{err('setting')}</p> : null}
         </fieldset>
         <div className="grid gap-4 sm:grid-cols-2">
-          <QuantityField label="Surface area of the bed or bin" name="surfaceArea" units={opts(AREA_UNIT_LABELS)} defaultAmount={values['surfaceArea.amount']} defaultUnit={values['surfaceArea.unit'] || 'm2'} errors={errors} required hint="The area the dose was spread over." />
+          <QuantityField label="Surface area of the bed or bin" name="surfaceArea" units={optionsFromLabels(AREA_UNIT_LABELS)} defaultAmount={values['surfaceArea.amount']} defaultUnit={values['surfaceArea.unit'] || 'm2'} errors={errors} required hint="The area the dose was spread over." />
           <QuantityField label="Bed or bin depth" name="bedDepth" units={lengthUnits} defaultAmount={values['bedDepth.amount']} defaultUnit={values['bedDepth.unit'] || 'cm'} errors={errors} hint="Optional." />
         </div>
         <Field
@@ -176,7 +175,7 @@ export function TrialForm({ mode, action, feedstocks, pairable, initial, version
       <fieldset className="space-y-4">
         <legend className="font-display text-2xl">Worms</legend>
         <div className="grid gap-4 sm:grid-cols-2">
-          <SelectField label="Worm species" name="species" options={opts(SPECIES_LABELS)} defaultValue={values.species || 'eisenia-fetida'} required error={err('species')} />
+          <SelectField label="Worm species" name="species" options={optionsFromLabels(SPECIES_LABELS)} defaultValue={values.species || 'eisenia-fetida'} required error={err('species')} />
           <QuantityField label="Worm mass (estimate)" name="wormMass" units={massUnits} defaultAmount={values['wormMass.amount']} defaultUnit={values['wormMass.unit'] || 'kg'} errors={errors} hint="Optional; gives the feed ratio." />
         </div>
       </fieldset>

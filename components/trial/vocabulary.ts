@@ -4,7 +4,8 @@
  * Safe in client components.
  */
 
-export type Outcome = 'consumed' | 'partial' | 'rejected' | 'harm';
+export const OUTCOMES = ['consumed', 'partial', 'rejected', 'harm'] as const;
+export type Outcome = (typeof OUTCOMES)[number];
 export type TrialStatus = 'running' | 'closed' | 'abandoned';
 
 export const PREPARATION_LABELS = {

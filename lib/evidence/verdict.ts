@@ -20,17 +20,12 @@ import {
 } from './thresholds';
 import type { GroupVerdict, Preparation, ThresholdCheck, Verdict } from './types';
 import { formatLoad } from './units';
+import { VERDICT_LABELS } from '../vocabulary';
 
 const EPS = 1e-12;
 
-/** Labels shown for verdict codes. */
-export const VERDICT_LABELS: Readonly<Record<Verdict, string>> = {
-  feed: 'Feed freely',
-  limit: 'Small amounts only',
-  prepare: 'Prepare first',
-  avoid: 'Keep out',
-  unsettled: 'Not enough evidence',
-};
+/** Labels shown for verdict codes (one list for the whole product: lib/vocabulary.ts). */
+export { VERDICT_LABELS };
 
 /** Label of a verdict code. Throws RangeError on an unknown code. */
 export function verdictLabel(v: Verdict): string {

@@ -2,6 +2,7 @@ import 'server-only';
 import { Op, QueryTypes, type WhereOptions } from 'sequelize';
 import { sequelize } from '@/db';
 import { Feedstock, FeedstockRedirect, FeedstockRevision, Proposal, Trial, VerdictHistory } from '@/db/models';
+import { SETTING_PHRASES, SETTING_PLURALS, VERDICT_LABELS } from '@/lib/vocabulary';
 
 /**
  * Entries of the Atom feeds (RFC 4287): verdict decisions, proposals opened,
@@ -9,16 +10,6 @@ import { Feedstock, FeedstockRedirect, FeedstockRevision, Proposal, Trial, Verdi
  * Privacy: no e-mail addresses, no names of people, no trial regions or
  * notes; a trial is described by its setting, preparation and load only.
  */
-
-const VERDICT_WORDS: Record<string, string> = {
-  feed: 'Feed freely',
-  limit: 'Small amounts only',
-  prepare: 'Prepare first',
-  avoid: 'Keep out',
-  unsettled: 'Not enough evidence',
-};
-const SETTING_WORDS: Record<string, string> = { bin: 'enclosed bins', 'flow-through': 'flow-through systems', bed: 'open beds' };
-const SETTING_PHRASES: Record<string, string> = { bin: 'an enclosed bin', 'flow-through': 'a flow-through system', bed: 'an open bed' };
 
 /** One feed entry; `key` is unique and stable (it becomes the entry's id). */
 export type FeedEntryDTO = {
@@ -93,7 +84,7 @@ export async function getFeed(feedstockId: number | null, limit = FEED_LIMIT): P
   const cited = new Map(citations.map((c) => [Number(c.proposal_id), Number(c.n)]));
   const changes = new Map<number, string[]>();
   for (const h of history) {
-    const line = `${h.previousVerdict ? `${VERDICT_WORDS[h.previousVerdict]} → ` : ''}${VERDICT_WORDS[h.verdict]} in ${SETTING_WORDS[h.setting]}`;
+    const line = `${h.previousVerdict ? `${VERDICT_LABELS[h.previousVerdict]} → ` : ''}${VERDICT_LABELS[h.verdict]} in ${SETTING_PLURALS[h.setting]}`;
     changes.set(h.proposalId!, [...(changes.get(h.proposalId!) ?? []), line]);
   }
 
@@ -131,7 +122,7 @@ export async function getFeed(feedstockId: number | null, limit = FEED_LIMIT): P
   for (const p of opened) {
     const f = names.get(p.feedstockId);
     if (!f) continue;
-    const suggests = p.settings.map((s) => `${VERDICT_WORDS[s.verdict]} in ${SETTING_WORDS[s.setting]}`).join('; ');
+    const suggests = p.settings.map((s) => `${VERDICT_LABELS[s.verdict]} in ${SETTING_PLURALS[s.setting]}`).join('; ');
     entries.push({
       key: `proposal-${p.id}-opened`,
       kind: 'proposal-opened',

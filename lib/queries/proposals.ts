@@ -17,6 +17,7 @@ import {
 import type { ProposedSetting } from '@/db/models/Proposal';
 import { tallyVotes, type Tally } from '@/lib/consensus';
 import { can, type Actor } from '@/lib/policies';
+import { SETTING_PLURALS, VERDICT_LABELS } from '@/lib/vocabulary';
 
 /** A vote as shown on a proposal page (hidden votes only to moderators). */
 export interface VoteDTO {
@@ -166,8 +167,6 @@ export async function getReviewQueue(now = new Date()): Promise<ReviewQueue> {
   const feedstocks = new Map(
     (await Feedstock.findAll({ where: { id: { [Op.in]: [...feedstockIds] } }, attributes: ['id', 'slug', 'name'] })).map((f) => [f.id, f]),
   );
-  const words: Record<string, string> = { feed: 'Feed freely', limit: 'Small amounts only', prepare: 'Prepare first', avoid: 'Keep out', unsettled: 'Not enough evidence' };
-  const settingWords: Record<string, string> = { bin: 'enclosed bins', 'flow-through': 'flow-through systems', bed: 'open beds' };
 
   const items: ReviewItem[] = [];
   const proposalItems = proposals.map((p) => {
@@ -189,9 +188,9 @@ export async function getReviewQueue(now = new Date()): Promise<ReviewQueue> {
     items.push({
       kind: 'mismatch',
       id: `mismatch-${m.feedstockId}-${m.setting}`,
-      title: `${f?.name ?? 'Feedstock'} in ${settingWords[m.setting]}`,
+      title: `${f?.name ?? 'Feedstock'} in ${SETTING_PLURALS[m.setting]}`,
       href: `/feedstocks/${f?.slug ?? ''}`,
-      detail: `Evidence says ${words[m.verdict]}; published is ${words[pub.get(`${m.feedstockId}:${m.setting}`)!]}`,
+      detail: `Evidence says ${VERDICT_LABELS[m.verdict]}; published is ${VERDICT_LABELS[pub.get(`${m.feedstockId}:${m.setting}`)!]}`,
       since: m.computedAt.toISOString(),
       waitingDays: daysSince(m.computedAt, now),
     });

@@ -21,16 +21,9 @@ import {
   VoteSchema,
   type ProposalCreateInput,
 } from '@/lib/validation/proposals';
+import { SETTING_PLURALS, VERDICT_LABELS } from '@/lib/vocabulary';
 import { queueFeedstockEvent } from './notifications';
 
-const VERDICT_WORDS: Record<string, string> = {
-  feed: 'Feed freely',
-  limit: 'Small amounts only',
-  prepare: 'Prepare first',
-  avoid: 'Keep out',
-  unsettled: 'Not enough evidence',
-};
-const SETTING_WORDS: Record<string, string> = { bin: 'enclosed bins', 'flow-through': 'flow-through systems', bed: 'open beds' };
 
 /**
  * Opens a verdict proposal (contributors and up) against the feedstock's
@@ -67,7 +60,7 @@ export async function createProposal(actor: Actor, raw: unknown): Promise<{ id: 
         proposalId: proposal.id,
         feedstockSlug: feedstock.slug,
         feedstockName: feedstock.name,
-        summary: input.settings.map((s) => `${VERDICT_WORDS[s.verdict]} in ${SETTING_WORDS[s.setting]}`).join('; '),
+        summary: input.settings.map((s) => `${VERDICT_LABELS[s.verdict]} in ${SETTING_PLURALS[s.setting]}`).join('; '),
         trialCount: trialIds.length,
       },
     });
@@ -184,7 +177,7 @@ export async function decideProposal(
         transaction,
       });
       const what = since.length
-        ? since.map((h) => `${VERDICT_WORDS[h.verdict]} in ${SETTING_WORDS[h.setting]} (proposal ${h.proposalId ?? '—'}, ${h.decidedAt.toISOString().slice(0, 10)})`).join('; ')
+        ? since.map((h) => `${VERDICT_LABELS[h.verdict]} in ${SETTING_PLURALS[h.setting]} (proposal ${h.proposalId ?? '—'}, ${h.decidedAt.toISOString().slice(0, 10)})`).join('; ')
         : 'the published verdict';
       throw new ConflictError(
         `The published verdict changed after this proposal was made: ${what}. Revise the proposal against the current verdict and resubmit.`,
@@ -227,7 +220,7 @@ export async function decideProposal(
     const cited = await ProposalTrial.count({ where: { proposalId: proposal.id }, transaction });
     const changes = proposal.settings.map((s) => {
       const from = replaced.get(s.setting);
-      return `${from ? `${VERDICT_WORDS[from]} → ` : ''}${VERDICT_WORDS[s.verdict]} in ${SETTING_WORDS[s.setting]}`;
+      return `${from ? `${VERDICT_LABELS[from]} → ` : ''}${VERDICT_LABELS[s.verdict]} in ${SETTING_PLURALS[s.setting]}`;
     });
     await queueFeedstockEvent(transaction, {
       kind: 'verdict-decided',

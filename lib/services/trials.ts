@@ -17,9 +17,9 @@ import {
   type TrialUpdateInput,
 } from '@/lib/validation/trials';
 import { loadTrialInputs, recomputeFeedstock } from './evidence';
+import { SETTING_PHRASES } from '@/lib/vocabulary';
 import { queueFeedstockEvent } from './notifications';
 
-const SETTING_PHRASES: Record<string, string> = { bin: 'an enclosed bin', 'flow-through': 'a flow-through system', bed: 'an open bed' };
 const formatLoad = (kgM2: number) => `${Number(kgM2.toPrecision(3))} kg/m²`;
 
 /**

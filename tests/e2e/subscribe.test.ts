@@ -141,10 +141,10 @@ describe('following a feedstock by e-mail in a browser', () => {
   it('a signed-in reader follows in one click and manages it on the account page', { timeout: 90_000 }, async () => {
     const reader = await buildUser({ role: 'reader' });
     try {
-      const { token } = await openSession(reader);
+      const session = await openSession(reader);
       const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
       context.setDefaultTimeout(15_000);
-      await context.addCookies([{ name: 'authjs.session-token', value: token, url: app.url, httpOnly: true, sameSite: 'Lax' }]);
+      await context.addCookies([session.browserCookie(app.url)]);
       const page = await context.newPage();
       await page.goto(`${app.url}/feedstocks/${f.slug}/subscribe`);
       await page.getByText(`Mail goes to ${reader.email}`).waitFor();

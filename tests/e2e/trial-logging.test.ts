@@ -21,7 +21,7 @@ import { aggregateFeedstock } from '@/lib/evidence';
 import { loadTrialInputs } from '@/lib/services/evidence';
 import { buildFeedstock, buildUser } from '../support/factories';
 import { startNextHandler } from '../support/next-app';
-import { createSessionFor } from '../support/session';
+import { openSession, type TestSession } from '../support/sessions';
 
 const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
 const day = (offset: number) => new Date(Date.now() + offset * 86_400_000).toISOString().slice(0, 10);
@@ -35,12 +35,12 @@ describe('trial logging on a phone', () => {
   let profile: string;
   let user: User;
   let feedstock: Feedstock;
-  let session: Awaited<ReturnType<typeof createSessionFor>>;
+  let session: TestSession;
 
   beforeAll(async () => {
     user = await buildUser({ role: 'contributor' });
     feedstock = await buildFeedstock({ name: `Bean husks ${Date.now().toString(36)}` });
-    session = await createSessionFor(user);
+    session = await openSession(user);
     const port = await freePort();
     app = await startNextHandler({ port });
     await new Promise<void>((resolve) => app.server.listen(port, '127.0.0.1', resolve));

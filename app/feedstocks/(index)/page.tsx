@@ -3,6 +3,8 @@ import Link from 'next/link';
 import { CertaintyBadge, VerdictBadge, VERDICT_LABELS, VERDICTS } from '@/components/evidence/verdict-badge';
 import { CATEGORIES, CATEGORY_LABELS, SETTINGS, SETTING_LABELS } from '@/components/layout/vocabulary';
 import { buttonClasses } from '@/components/ui/button';
+import { FilterSelect, optionsOf } from '@/components/ui/filter-select';
+import { Pagination } from '@/components/ui/pagination';
 import { Table } from '@/components/ui/table';
 import { formatDate } from '@/lib/format';
 import { listFeedstockIndex, type IndexSort } from '@/lib/queries/feedstocks';
@@ -52,6 +54,7 @@ function SortHeader({ state, sort, children }: { state: FeedstockIndexParams; so
 }
 
 const selectClass = 'min-h-touch rounded-md border border-line-strong bg-surface-raised px-3 text-base text-ink';
+const PER_PAGE_OPTIONS = [25, 50, 100].map((n) => ({ value: String(n), label: String(n) }));
 
 export default async function FeedstocksPage({ searchParams }: { searchParams: SearchParams }) {
   const state = FeedstockIndexParamsSchema.parse(await searchParams);
@@ -83,57 +86,10 @@ export default async function FeedstocksPage({ searchParams }: { searchParams: S
         {state.q ? <input type="hidden" name="q" value={state.q} /> : null}
         {state.sort !== 'name' ? <input type="hidden" name="sort" value={state.sort} /> : null}
         {state.dir !== 'asc' ? <input type="hidden" name="dir" value={state.dir} /> : null}
-        <div className="flex flex-col gap-1">
-          <label htmlFor="filter-category" className="font-semibold">
-            Category
-          </label>
-          <select id="filter-category" name="category" defaultValue={state.category ?? ''} className={selectClass}>
-            <option value="">Any category</option>
-            {CATEGORIES.map((c) => (
-              <option key={c} value={c}>
-                {CATEGORY_LABELS[c]}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="filter-verdict" className="font-semibold">
-            Verdict
-          </label>
-          <select id="filter-verdict" name="verdict" defaultValue={state.verdict ?? ''} className={selectClass}>
-            <option value="">Any verdict</option>
-            {VERDICTS.map((v) => (
-              <option key={v} value={v}>
-                {VERDICT_LABELS[v]}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="filter-setting" className="font-semibold">
-            In setting
-          </label>
-          <select id="filter-setting" name="setting" defaultValue={state.setting ?? ''} className={selectClass}>
-            <option value="">Any setting</option>
-            {SETTINGS.map((s) => (
-              <option key={s} value={s}>
-                {SETTING_LABELS[s]}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="filter-per" className="font-semibold">
-            Per page
-          </label>
-          <select id="filter-per" name="per" defaultValue={String(state.per)} className={selectClass}>
-            {[25, 50, 100].map((n) => (
-              <option key={n} value={n}>
-                {n}
-              </option>
-            ))}
-          </select>
-        </div>
+        <FilterSelect name="category" label="Category" value={state.category ?? ''} anyLabel="Any category" options={optionsOf(CATEGORIES, CATEGORY_LABELS)} selectClassName={selectClass} />
+        <FilterSelect name="verdict" label="Verdict" value={state.verdict ?? ''} anyLabel="Any verdict" options={optionsOf(VERDICTS, VERDICT_LABELS)} selectClassName={selectClass} />
+        <FilterSelect name="setting" label="In setting" value={state.setting ?? ''} anyLabel="Any setting" options={optionsOf(SETTINGS, SETTING_LABELS)} selectClassName={selectClass} />
+        <FilterSelect name="per" label="Per page" value={String(state.per)} options={PER_PAGE_OPTIONS} selectClassName={selectClass} />
         <button type="submit" className={buttonClasses('primary')}>
           Show
         </button>
@@ -205,37 +161,7 @@ export default async function FeedstocksPage({ searchParams }: { searchParams: S
         </Table>
       ) : null}
 
-      {result.pages > 1 ? (
-        <nav aria-label="Pages" className="flex flex-wrap items-center gap-2">
-          {result.page > 1 ? (
-            <Link href={hrefFor(state, { page: result.page - 1 })} className={buttonClasses('secondary')} rel="prev">
-              Previous
-            </Link>
-          ) : null}
-          <ol className="flex list-none flex-wrap gap-1 p-0">
-            {Array.from({ length: result.pages }, (_, i) => i + 1)
-              .filter((n) => n === 1 || n === result.pages || Math.abs(n - result.page) <= 2)
-              .map((n, i, arr) => (
-                <li key={n} className="flex items-center gap-1">
-                  {i > 0 && n - arr[i - 1] > 1 ? <span aria-hidden="true">…</span> : null}
-                  <Link
-                    href={hrefFor(state, { page: n })}
-                    aria-current={n === result.page ? 'page' : undefined}
-                    className="inline-flex min-h-touch min-w-touch items-center justify-center rounded-md border border-line-strong px-2 aria-[current=page]:bg-accent aria-[current=page]:text-accent-ink"
-                  >
-                    <span className="sr-only">Page </span>
-                    {n}
-                  </Link>
-                </li>
-              ))}
-          </ol>
-          {result.page < result.pages ? (
-            <Link href={hrefFor(state, { page: result.page + 1 })} className={buttonClasses('secondary')} rel="next">
-              Next
-            </Link>
-          ) : null}
-        </nav>
-      ) : null}
+      <Pagination page={result.page} pageCount={result.pages} hrefFor={(page) => hrefFor(state, { page })} variant="numbers" />
     </div>
   );
 }

@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { z } from 'zod';
-import { AccessNote } from '@/components/layout/access-note';
+import { AccessPage } from '@/components/layout/access-note';
 import { DiffView } from '@/components/feedstock/diff-view';
 import { ReviewEditForm } from '@/components/feedstock/review-forms';
 import { getActor } from '@/lib/auth/actor';
@@ -19,12 +19,7 @@ const DecidedParam = z.coerce.number().int().positive();
 export default async function ReviewEditsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const actor = await getActor();
   if (!can(actor, 'feedstock.review-edit')) {
-    return (
-      <div className="space-y-6">
-        <h1 className="text-3xl">Suggested edits</h1>
-        <AccessNote actor={actor} who="editors" callbackUrl="/review/edits" />
-      </div>
-    );
+    return <AccessPage title="Suggested edits" actor={actor} who="editors" callbackUrl="/review/edits" />;
   }
   const decidedId = DecidedParam.safeParse((await searchParams).decided);
   const [edits, decided] = await Promise.all([listPendingEdits(), decidedId.success ? getDecidedEdit(decidedId.data) : null]);

@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { AccessNote } from '@/components/layout/access-note';
+import { AccessPage } from '@/components/layout/access-note';
 import { RequestDecisionForm } from '@/components/feedstock/review-forms';
 import { Table } from '@/components/ui/table';
 import { getActor } from '@/lib/auth/actor';
@@ -17,12 +17,7 @@ const STATUS: Record<string, string> = { open: 'Open', added: 'Page made', decli
 export default async function ReviewRequestsPage() {
   const actor = await getActor();
   if (!can(actor, 'review.view')) {
-    return (
-      <div className="space-y-6">
-        <h1 className="text-3xl">Requested feedstocks</h1>
-        <AccessNote actor={actor} who="editors" callbackUrl="/review/requests" />
-      </div>
-    );
+    return <AccessPage title="Requested feedstocks" actor={actor} who="editors" callbackUrl="/review/requests" />;
   }
   const requests = await listFeedstockRequests();
   const canCreate = can(actor, 'feedstock.create');

@@ -1,7 +1,19 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { inputClass, raw, ToolField } from '@/components/tools/form-bits';
-import { buttonClasses } from '@/components/ui/button';
+import {
+  DecimalField,
+  FieldErrorsAlert,
+  inputClass,
+  MassUnitOptions,
+  raw,
+  ResultList,
+  ToolField,
+  ToolFieldset,
+  ToolHeader,
+  ToolMethod,
+  ToolResult,
+  ToolSubmit,
+} from '@/components/tools/form-bits';
 import { checkComfort, DEFAULT_FEED_RATE, suggestBin, toCelsius, type ComfortResult, type WormSpecies } from '@/lib/evidence';
 import { formatNumber } from '@/lib/format';
 import { BinSizeParamsSchema, parseForm } from '@/lib/validation/tools';
@@ -41,46 +53,36 @@ export default async function BinSizePage({ searchParams }: { searchParams: Prom
 
   return (
     <div className="space-y-8">
-      <header className="space-y-2">
-        <h1 className="text-3xl">Bin size and worm comfort</h1>
-        <p className="max-w-prose">
-          From the food scraps you throw out in a week: the bin surface, a box size and how many worms eat that much. Then check whether a bed&rsquo;s
-          temperature and moisture suit the worms. Also: <Link href="/tools/mix">C:N and moisture of a mix</Link>,{' '}
-          <Link href="/guides/starting-a-worm-bin">starting a worm bin</Link>.
-        </p>
-      </header>
+      <ToolHeader title="Bin size and worm comfort">
+        From the food scraps you throw out in a week: the bin surface, a box size and how many worms eat that much. Then check whether a bed&rsquo;s
+        temperature and moisture suit the worms. Also: <Link href="/tools/mix">C:N and moisture of a mix</Link>,{' '}
+        <Link href="/guides/starting-a-worm-bin">starting a worm bin</Link>.
+      </ToolHeader>
 
       <form method="get" action="/tools/bin-size" className="space-y-6" noValidate aria-label="Bin size and comfort">
-        <fieldset className="space-y-3 rounded-lg border border-line bg-surface-raised p-4">
-          <legend className="px-1 font-display text-xl">Bin size</legend>
+        <ToolFieldset legend="Bin size">
           <div className="grid gap-3 sm:grid-cols-3">
-            <ToolField id="bin-scraps" label="Food scraps a week" error={e1('scraps')}>
-              {(p) => <input {...p} name="scraps" inputMode="decimal" defaultValue={raw(sp.scraps)} className={inputClass} />}
-            </ToolField>
+            <DecimalField id="bin-scraps" label="Food scraps a week" name="scraps" value={raw(sp.scraps)} error={e1('scraps')} />
             <ToolField id="bin-unit" label="Unit">
               {(p) => (
                 <select {...p} name="unit" defaultValue={unit} className={inputClass}>
-                  <option value="kg">kilograms</option>
-                  <option value="lb">pounds</option>
+                  <MassUnitOptions />
                 </select>
               )}
             </ToolField>
-            <ToolField
+            <DecimalField
               id="bin-rate"
               label="Feed rate (optional)"
+              name="rate"
+              value={raw(sp.rate)}
               error={e1('rate')}
               hint={`kg of food per kg of worms a day; default ${DEFAULT_FEED_RATE}`}
-            >
-              {(p) => <input {...p} name="rate" inputMode="decimal" defaultValue={raw(sp.rate)} className={inputClass} />}
-            </ToolField>
+            />
           </div>
-        </fieldset>
-        <fieldset className="space-y-3 rounded-lg border border-line bg-surface-raised p-4">
-          <legend className="px-1 font-display text-xl">Worm comfort (optional)</legend>
+        </ToolFieldset>
+        <ToolFieldset legend="Worm comfort (optional)">
           <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
-            <ToolField id="bin-temp" label="Bed temperature" error={e1('temp')} hint="5–10 cm down">
-              {(p) => <input {...p} name="temp" inputMode="decimal" defaultValue={raw(sp.temp)} className={inputClass} />}
-            </ToolField>
+            <DecimalField id="bin-temp" label="Bed temperature" name="temp" value={raw(sp.temp)} error={e1('temp')} hint="5–10 cm down" />
             <ToolField id="bin-temp-unit" label="Temperature unit">
               {(p) => (
                 <select {...p} name="tempUnit" defaultValue={raw(sp.tempUnit) === 'F' ? 'F' : 'C'} className={inputClass}>
@@ -89,9 +91,7 @@ export default async function BinSizePage({ searchParams }: { searchParams: Prom
                 </select>
               )}
             </ToolField>
-            <ToolField id="bin-moisture" label="Moisture (%)" error={e1('moisture')} hint="water as % of bedding weight">
-              {(p) => <input {...p} name="moisture" inputMode="decimal" defaultValue={raw(sp.moisture)} className={inputClass} />}
-            </ToolField>
+            <DecimalField id="bin-moisture" label="Moisture (%)" name="moisture" value={raw(sp.moisture)} error={e1('moisture')} hint="water as % of bedding weight" />
             <ToolField id="bin-species" label="Worms" error={e1('species')}>
               {(p) => (
                 <select {...p} name="species" defaultValue={raw(sp.species) || 'eisenia-fetida'} className={inputClass}>
@@ -104,24 +104,15 @@ export default async function BinSizePage({ searchParams }: { searchParams: Prom
               )}
             </ToolField>
           </div>
-        </fieldset>
-        <button type="submit" className={buttonClasses('primary', 'lg')}>
-          Work it out
-        </button>
+        </ToolFieldset>
+        <ToolSubmit />
       </form>
 
-      {submitted && Object.keys(errors).length ? (
-        <p role="alert" className="rounded-md border-2 border-danger bg-verdict-avoid-soft p-3">
-          Some fields need attention: see the messages next to them.
-        </p>
-      ) : null}
+      <FieldErrorsAlert show={submitted && Object.keys(errors).length > 0} />
 
       {bin ? (
-        <section aria-labelledby="bin-result" className="space-y-3" role="status">
-          <h2 id="bin-result" className="text-2xl">
-            Your bin
-          </h2>
-          <dl className="grid max-w-xl grid-cols-[auto_1fr] gap-x-6 gap-y-1 text-lg">
+        <ToolResult id="bin-result" title="Your bin">
+          <ResultList>
             <dt className="font-semibold">Surface</dt>
             <dd>
               {formatNumber(bin.areaM2, 2)} m² ({formatNumber(bin.areaFt2, 2)} ft²)
@@ -139,37 +130,29 @@ export default async function BinSizePage({ searchParams }: { searchParams: Prom
               {formatNumber(bin.wormMassKg, 2)} kg ({formatNumber(bin.wormMassLb, 2)} lb) at {formatNumber(bin.feedRate, 2)} kg of food per kg of
               worms a day
             </dd>
-          </dl>
+          </ResultList>
           <p className="max-w-prose text-sm text-ink-muted">
             Start with fewer worms and feed less for the first weeks: a new bin takes a while to reach that rate.
           </p>
-        </section>
+        </ToolResult>
       ) : null}
 
       {comfort ? (
-        <section aria-labelledby="comfort-result" className="space-y-3" role="status">
-          <h2 id="comfort-result" className="text-2xl">
-            Comfort: {STATUS_WORDS[comfort.status]}
-          </h2>
+        <ToolResult id="comfort-result" title={<>Comfort: {STATUS_WORDS[comfort.status]}</>}>
           <ul className="list-disc pl-5">
             {comfort.temperature ? <li>Temperature: {comfort.temperature.status}, {comfort.temperature.reason}.</li> : null}
             {comfort.moisture ? <li>Moisture: {comfort.moisture.status}, {comfort.moisture.reason}.</li> : null}
           </ul>
-        </section>
+        </ToolResult>
       ) : null}
 
-      <section aria-labelledby="bin-how" className="max-w-prose space-y-2 text-sm text-ink-muted">
-        <h2 id="bin-how" className="text-lg text-ink">
-          How it is worked out
-        </h2>
-        <p>
-          One square foot of bin surface per pound of food scraps a week, about 8 inches deep (NC State Extension, AG-473-18). Worms eat about half
-          their weight a day in good conditions (a rule of thumb from the OACC on-farm vermiculture manual, from memory). Comfort limits for{' '}
-          <i>Eisenia fetida</i>: 4–30 °C and 60–90% moisture for breeding (Edwards (ed.), <i>Earthworm Ecology</i>, ch. 18, Table 18.3); worms die
-          at 35 °C (Loehr, Neuhauser &amp; Malecki 1985). The two tropical species are cold-limited, dying below about 9 °C and above about 30 °C
-          (from memory).
-        </p>
-      </section>
+      <ToolMethod id="bin-how">
+        One square foot of bin surface per pound of food scraps a week, about 8 inches deep (NC State Extension, AG-473-18). Worms eat about half
+        their weight a day in good conditions (a rule of thumb from the OACC on-farm vermiculture manual, from memory). Comfort limits for{' '}
+        <i>Eisenia fetida</i>: 4–30 °C and 60–90% moisture for breeding (Edwards (ed.), <i>Earthworm Ecology</i>, ch. 18, Table 18.3); worms die
+        at 35 °C (Loehr, Neuhauser &amp; Malecki 1985). The two tropical species are cold-limited, dying below about 9 °C and above about 30 °C
+        (from memory).
+      </ToolMethod>
     </div>
   );
 }

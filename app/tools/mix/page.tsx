@@ -1,7 +1,20 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { inputClass, raw, ToolField } from '@/components/tools/form-bits';
-import { buttonClasses } from '@/components/ui/button';
+import {
+  DecimalField,
+  FieldErrorsAlert,
+  inputClass,
+  MassUnitOptions,
+  raw,
+  ResultList,
+  ToolAlert,
+  ToolField,
+  ToolFieldset,
+  ToolHeader,
+  ToolMethod,
+  ToolResult,
+  ToolSubmit,
+} from '@/components/tools/form-bits';
 import { Table } from '@/components/ui/table';
 import { amountForCN, amountForMoisture, mixProperties, REFERENCE_MATERIALS, type MixIngredient } from '@/lib/evidence';
 import { formatNumber } from '@/lib/format';
@@ -17,6 +30,12 @@ export const metadata: Metadata = {
 };
 
 type SP = Record<string, string | string[] | undefined>;
+
+/** The material selects' groups: published reference values, then this site's feedstocks. */
+const MATERIAL_GROUPS = [
+  { prefix: 'ref:', label: 'Reference table (published values)' },
+  { prefix: 'feedstock:', label: 'Feedstocks on this site' },
+] as const;
 
 function materials(fromDb: MixMaterialDTO[]): MixMaterialDTO[] {
   const refs: MixMaterialDTO[] = REFERENCE_MATERIALS.map((m) => ({
@@ -91,46 +110,34 @@ export default async function MixPage({ searchParams }: { searchParams: Promise<
   const options = (
     <>
       <option value="">Choose a material</option>
-      <optgroup label="Reference table (published values)">
-        {all
-          .filter((m) => m.id.startsWith('ref:'))
-          .map((m) => (
-            <option key={m.id} value={m.id}>
-              {m.name}
-            </option>
-          ))}
-      </optgroup>
-      <optgroup label="Feedstocks on this site">
-        {all
-          .filter((m) => m.id.startsWith('feedstock:'))
-          .map((m) => (
-            <option key={m.id} value={m.id}>
-              {m.name}
-            </option>
-          ))}
-      </optgroup>
+      {MATERIAL_GROUPS.map((g) => (
+        <optgroup key={g.prefix} label={g.label}>
+          {all
+            .filter((m) => m.id.startsWith(g.prefix))
+            .map((m) => (
+              <option key={m.id} value={m.id}>
+                {m.name}
+              </option>
+            ))}
+        </optgroup>
+      ))}
     </>
   );
   const e1 = (k: string) => err[k]?.[0];
 
   return (
     <div className="space-y-8">
-      <header className="space-y-2">
-        <h1 className="text-3xl">Mix calculator: C:N and moisture</h1>
-        <p className="max-w-prose">
-          The carbon-to-nitrogen ratio and moisture of a mix of feedstocks and bedding, weighted by each one&rsquo;s dry matter (not a plain
-          average of the ratios), and how much of another material brings the mix to a target. Also: <Link href="/tools/bin-size">bin size and worm comfort</Link>.
-        </p>
-      </header>
+      <ToolHeader title="Mix calculator: C:N and moisture">
+        The carbon-to-nitrogen ratio and moisture of a mix of feedstocks and bedding, weighted by each one&rsquo;s dry matter (not a plain average
+        of the ratios), and how much of another material brings the mix to a target. Also: <Link href="/tools/bin-size">bin size and worm comfort</Link>.
+      </ToolHeader>
 
       <form method="get" action="/tools/mix" className="space-y-6" noValidate aria-label="Mix">
-        <fieldset className="space-y-3 rounded-lg border border-line bg-surface-raised p-4">
-          <legend className="px-1 font-display text-xl">What goes in</legend>
+        <ToolFieldset legend="What goes in">
           <ToolField id="mix-unit" label="Amounts in">
             {(p) => (
               <select {...p} name="unit" defaultValue={unit} className={`${inputClass} max-w-40`}>
-                <option value="kg">kilograms</option>
-                <option value="lb">pounds</option>
+                <MassUnitOptions />
               </select>
             )}
           </ToolField>
@@ -143,14 +150,11 @@ export default async function MixPage({ searchParams }: { searchParams: Promise<
                   </select>
                 )}
               </ToolField>
-              <ToolField id={`mix-q${i}`} label={`Amount ${i} (fresh, ${unit})`} error={e1(`q${i}`)}>
-                {(p) => <input {...p} name={`q${i}`} inputMode="decimal" defaultValue={raw(sp[`q${i}`])} className={inputClass} />}
-              </ToolField>
+              <DecimalField id={`mix-q${i}`} label={`Amount ${i} (fresh, ${unit})`} name={`q${i}`} value={raw(sp[`q${i}`])} error={e1(`q${i}`)} />
             </div>
           ))}
-        </fieldset>
-        <fieldset className="space-y-3 rounded-lg border border-line bg-surface-raised p-4">
-          <legend className="px-1 font-display text-xl">Reach a target (optional)</legend>
+        </ToolFieldset>
+        <ToolFieldset legend="Reach a target (optional)">
           <div className="grid gap-3 sm:grid-cols-3">
             <ToolField id="mix-goal" label="Target" error={e1('goal')}>
               {(p) => (
@@ -161,9 +165,7 @@ export default async function MixPage({ searchParams }: { searchParams: Promise<
                 </select>
               )}
             </ToolField>
-            <ToolField id="mix-target" label="Value" error={e1('target')} hint="e.g. 25 for C:N, 75 for moisture">
-              {(p) => <input {...p} name="target" inputMode="decimal" defaultValue={raw(sp.target)} className={inputClass} />}
-            </ToolField>
+            <DecimalField id="mix-target" label="Value" name="target" value={raw(sp.target)} error={e1('target')} hint="e.g. 25 for C:N, 75 for moisture" />
             <ToolField id="mix-add" label="By adding" error={e1('add')}>
               {(p) => (
                 <select {...p} name="add" defaultValue={addId} className={inputClass}>
@@ -172,29 +174,16 @@ export default async function MixPage({ searchParams }: { searchParams: Promise<
               )}
             </ToolField>
           </div>
-        </fieldset>
-        <button type="submit" className={buttonClasses('primary', 'lg')}>
-          Work it out
-        </button>
+        </ToolFieldset>
+        <ToolSubmit />
       </form>
 
-      {formError ? (
-        <p role="alert" className="rounded-md border-2 border-danger bg-verdict-avoid-soft p-3">
-          {formError}
-        </p>
-      ) : null}
-      {submitted && Object.keys(err).length ? (
-        <p role="alert" className="rounded-md border-2 border-danger bg-verdict-avoid-soft p-3">
-          Some fields need attention: see the messages next to them.
-        </p>
-      ) : null}
+      {formError ? <ToolAlert>{formError}</ToolAlert> : null}
+      <FieldErrorsAlert show={submitted && Object.keys(err).length > 0} />
 
       {result ? (
-        <section aria-labelledby="mix-result" className="space-y-4" role="status">
-          <h2 id="mix-result" className="text-2xl">
-            The mix
-          </h2>
-          <dl className="grid max-w-xl grid-cols-[auto_1fr] gap-x-6 gap-y-1 text-lg">
+        <ToolResult id="mix-result" title="The mix" className="space-y-4">
+          <ResultList>
             <dt className="font-semibold">C:N ratio</dt>
             <dd>{formatNumber(result.props.cnRatio, 3)}:1</dd>
             <dt className="font-semibold">Moisture</dt>
@@ -203,7 +192,7 @@ export default async function MixPage({ searchParams }: { searchParams: Promise<
             <dd>
               {formatNumber(result.props.wetMass, 3)} {unit} ({formatNumber(result.props.dryMass, 3)} {unit} dry matter)
             </dd>
-          </dl>
+          </ResultList>
           {result.target ? <p className="text-lg font-semibold">{result.target.text}</p> : null}
           <ul className="max-w-prose list-disc space-y-1 pl-5">
             <li>
@@ -239,21 +228,16 @@ export default async function MixPage({ searchParams }: { searchParams: Promise<
               ))}
             </tbody>
           </Table>
-        </section>
+        </ToolResult>
       ) : null}
 
-      <section aria-labelledby="mix-how" className="max-w-prose space-y-2 text-sm text-ink-muted">
-        <h2 id="mix-how" className="text-lg text-ink">
-          How it is worked out
-        </h2>
-        <p>
-          Mix C:N = Σ mass × carbon × dry share ÷ Σ mass × nitrogen × dry share; mix moisture = Σ mass × moisture ÷ Σ mass (T. Richard and N.
-          Trautmann, Cornell Waste Management Institute, &ldquo;Getting the right mix&rdquo;). Reference values: G. L. Bertrand&rsquo;s
-          compost-calculator table (Missouri S&amp;T), drawing on the On-Farm Composting Handbook (NRAES-54); feedstock values name their own
-          source on each page. Moisture ranges: Edwards (ed.), <i>Earthworm Ecology</i>, ch. 18; compost ranges: Cooperband (2002), <i>The Art and
-          Science of Composting</i>.
-        </p>
-      </section>
+      <ToolMethod id="mix-how">
+        Mix C:N = Σ mass × carbon × dry share ÷ Σ mass × nitrogen × dry share; mix moisture = Σ mass × moisture ÷ Σ mass (T. Richard and N.
+        Trautmann, Cornell Waste Management Institute, &ldquo;Getting the right mix&rdquo;). Reference values: G. L. Bertrand&rsquo;s
+        compost-calculator table (Missouri S&amp;T), drawing on the On-Farm Composting Handbook (NRAES-54); feedstock values name their own
+        source on each page. Moisture ranges: Edwards (ed.), <i>Earthworm Ecology</i>, ch. 18; compost ranges: Cooperband (2002), <i>The Art and
+        Science of Composting</i>.
+      </ToolMethod>
     </div>
   );
 }

@@ -1,41 +1,29 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
-import { notFound, permanentRedirect } from 'next/navigation';
 import { PageEditForm } from '@/components/feedstock/page-edit-form';
 import { PageText } from '@/components/markdown/page-text';
 import { LinkButton } from '@/components/ui/link-button';
+import { SubpageBreadcrumb } from '@/components/feedstock/subpage-breadcrumb';
 import { getActor } from '@/lib/auth/actor';
+import { loadEditableFeedstock } from '@/lib/feedstocks/editable-page';
 import { can } from '@/lib/policies';
-import { getEditableText, resolveFeedstockSlug } from '@/lib/queries/feedstocks';
 
 export const dynamic = 'force-dynamic';
 
 type Props = { params: Promise<{ slug: string }> };
 
-async function load(slug: string) {
-  const resolved = await resolveFeedstockSlug(slug);
-  if (resolved.kind === 'redirect') permanentRedirect(`/feedstocks/${resolved.slug}/edit`);
-  if (resolved.kind === 'missing') notFound();
-  const f = await getEditableText(resolved.id);
-  if (!f) notFound();
-  return f;
-}
-
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
-  const f = await load((await params).slug);
+  const f = await loadEditableFeedstock((await params).slug, 'edit');
   return { title: `Edit: ${f.name}`, description: `Edit the page text about ${f.name.toLowerCase()}.`, robots: { index: false } };
 }
 
 export default async function EditPage({ params }: Props) {
   const { slug } = await params;
-  const [f, actor] = await Promise.all([load(slug), getActor()]);
+  const [f, actor] = await Promise.all([loadEditableFeedstock(slug, 'edit'), getActor()]);
   const canEdit = can(actor, 'feedstock.edit');
   const canSuggest = can(actor, 'feedstock.suggest-edit');
   return (
     <div className="space-y-6">
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link href={`/feedstocks/${f.slug}`}>{f.name}</Link> <span aria-hidden="true">›</span> Edit
-      </nav>
+      <SubpageBreadcrumb feedstock={f} current="Edit" />
       <h1 className="text-3xl">{canEdit ? 'Edit' : canSuggest ? 'Suggest an edit to' : 'Edit'} the page about {f.name.toLowerCase()}</h1>
       {canSuggest ? (
         <PageEditForm feedstockId={f.id} initialText={f.pageText} baseVersion={f.version} mode={canEdit ? 'publish' : 'suggest'} />

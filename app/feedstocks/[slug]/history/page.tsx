@@ -1,42 +1,32 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { notFound, permanentRedirect } from 'next/navigation';
 import { DiffView } from '@/components/feedstock/diff-view';
 import { RevertForm } from '@/components/feedstock/revert-form';
+import { SubpageBreadcrumb } from '@/components/feedstock/subpage-breadcrumb';
 import { getActor } from '@/lib/auth/actor';
+import { loadEditableFeedstock } from '@/lib/feedstocks/editable-page';
 import { formatDate } from '@/lib/format';
 import { can } from '@/lib/policies';
-import { getEditableText, listRevisionHistory, resolveFeedstockSlug } from '@/lib/queries/feedstocks';
+import { listRevisionHistory } from '@/lib/queries/feedstocks';
 
 export const dynamic = 'force-dynamic';
 
 type Props = { params: Promise<{ slug: string }> };
 
-async function load(slug: string) {
-  const resolved = await resolveFeedstockSlug(slug);
-  if (resolved.kind === 'redirect') permanentRedirect(`/feedstocks/${resolved.slug}/history`);
-  if (resolved.kind === 'missing') notFound();
-  const f = await getEditableText(resolved.id);
-  if (!f) notFound();
-  return f;
-}
-
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
-  const f = await load((await params).slug);
+  const f = await loadEditableFeedstock((await params).slug, 'history');
   return { title: `History: ${f.name}`, description: `Every version of the page text about ${f.name.toLowerCase()}, with what changed.` };
 }
 
 export default async function HistoryPage({ params }: Props) {
   const { slug } = await params;
-  const f = await load(slug);
+  const f = await loadEditableFeedstock(slug, 'history');
   const [history, actor] = await Promise.all([listRevisionHistory(f.id), getActor()]);
   const canRevert = can(actor, 'feedstock.edit');
   const canReview = can(actor, 'feedstock.review-edit');
   return (
     <div className="space-y-6">
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link href={`/feedstocks/${f.slug}`}>{f.name}</Link> <span aria-hidden="true">›</span> History
-      </nav>
+      <SubpageBreadcrumb feedstock={f} current="History" />
       <h1 className="text-3xl">History of the page about {f.name.toLowerCase()}</h1>
       <p className="max-w-prose">
         {history.entries.length} published {history.entries.length === 1 ? 'version' : 'versions'}, newest first. A revert never deletes anything:

@@ -1,11 +1,11 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
-import { notFound, permanentRedirect } from 'next/navigation';
 import { AccessNote } from '@/components/layout/access-note';
 import { MergeFeedstockForm, RenameFeedstockForm } from '@/components/feedstock/manage-forms';
+import { SubpageBreadcrumb } from '@/components/feedstock/subpage-breadcrumb';
 import { getActor } from '@/lib/auth/actor';
+import { loadEditableFeedstock } from '@/lib/feedstocks/editable-page';
 import { can } from '@/lib/policies';
-import { getEditableText, listFeedstockChoices, resolveFeedstockSlug } from '@/lib/queries/feedstocks';
+import { listFeedstockChoices } from '@/lib/queries/feedstocks';
 
 export const dynamic = 'force-dynamic';
 
@@ -13,18 +13,12 @@ export const metadata: Metadata = { title: 'Manage feedstock', robots: { index: 
 
 export default async function ManagePage({ params }: { params: Promise<{ slug: string }> }) {
   const { slug } = await params;
-  const resolved = await resolveFeedstockSlug(slug);
-  if (resolved.kind === 'redirect') permanentRedirect(`/feedstocks/${resolved.slug}/manage`);
-  if (resolved.kind === 'missing') notFound();
-  const [f, actor] = await Promise.all([getEditableText(resolved.id), getActor()]);
-  if (!f) notFound();
+  const [f, actor] = await Promise.all([loadEditableFeedstock(slug, 'manage'), getActor()]);
   const canRename = can(actor, 'feedstock.rename');
   const canMerge = can(actor, 'feedstock.merge');
   return (
     <div className="space-y-8">
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link href={`/feedstocks/${f.slug}`}>{f.name}</Link> <span aria-hidden="true">›</span> Manage
-      </nav>
+      <SubpageBreadcrumb feedstock={f} current="Manage" />
       <h1 className="text-3xl">Manage {f.name.toLowerCase()}</h1>
       {!canRename && !canMerge ? <AccessNote actor={actor} who="editors" callbackUrl={`/feedstocks/${f.slug}/manage`} /> : null}
       <div className="grid max-w-4xl gap-8 md:grid-cols-2">

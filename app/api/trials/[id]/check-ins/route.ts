@@ -1,11 +1,10 @@
 import { NextResponse } from 'next/server';
 import { getActor } from '@/lib/auth/actor';
-import { NotFoundError } from '@/lib/errors';
 import { readJson } from '@/lib/http/body';
-import { errorResponse, parseId } from '@/lib/http/respond';
+import { errorResponse } from '@/lib/http/respond';
 import { revalidateTrial } from '@/lib/http/revalidate';
 import { assertSameOrigin } from '@/lib/http/same-origin';
-import { getTrialDetail } from '@/lib/queries/trials';
+import { trialDetailOf, trialIdOf } from '@/lib/http/trial-route';
 import { addCheckIn } from '@/lib/services/trials';
 import { CheckInCreateSchema } from '@/lib/validation/trials';
 
@@ -16,9 +15,7 @@ type Ctx = { params: Promise<{ id: string }> };
 /** The trial's check-ins, oldest first, with their photos. */
 export async function GET(_request: Request, { params }: Ctx) {
   try {
-    const id = parseId((await params).id);
-    const trial = id ? await getTrialDetail(id) : null;
-    if (!trial) throw new NotFoundError('No such trial.');
+    const trial = await trialDetailOf((await params).id);
     return NextResponse.json({ trialId: trial.id, checkIns: trial.checkIns }, { headers: { 'Cache-Control': 'no-store' } });
   } catch (err) {
     return errorResponse(err);
@@ -29,8 +26,7 @@ export async function GET(_request: Request, { params }: Ctx) {
 export async function POST(request: Request, { params }: Ctx) {
   try {
     assertSameOrigin(request);
-    const id = parseId((await params).id);
-    if (!id) throw new NotFoundError('No such trial.');
+    const id = trialIdOf((await params).id);
     const body = CheckInCreateSchema.parse(await readJson(request));
     const created = await addCheckIn(await getActor(), id, body);
     await revalidateTrial(id);

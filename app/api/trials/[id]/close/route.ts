@@ -1,10 +1,10 @@
 import { NextResponse } from 'next/server';
 import { getActor } from '@/lib/auth/actor';
-import { NotFoundError } from '@/lib/errors';
 import { readJson } from '@/lib/http/body';
-import { errorResponse, parseId } from '@/lib/http/respond';
+import { errorResponse } from '@/lib/http/respond';
 import { revalidateTrial } from '@/lib/http/revalidate';
 import { assertSameOrigin } from '@/lib/http/same-origin';
+import { trialIdOf } from '@/lib/http/trial-route';
 import { closeTrial } from '@/lib/services/trials';
 import { TrialCloseSchema } from '@/lib/validation/trials';
 
@@ -17,8 +17,7 @@ export const dynamic = 'force-dynamic';
 export async function POST(request: Request, { params }: { params: Promise<{ id: string }> }) {
   try {
     assertSameOrigin(request);
-    const id = parseId((await params).id);
-    if (!id) throw new NotFoundError('No such trial.');
+    const id = trialIdOf((await params).id);
     const body = TrialCloseSchema.parse(await readJson(request));
     const closed = await closeTrial(await getActor(), id, body);
     await revalidateTrial(id);

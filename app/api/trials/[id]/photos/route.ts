@@ -1,12 +1,11 @@
 import { NextResponse } from 'next/server';
 import { getActor } from '@/lib/auth/actor';
-import { NotFoundError } from '@/lib/errors';
 import { assertDeclaredLength, readLimited } from '@/lib/http/body';
-import { errorResponse, parseId } from '@/lib/http/respond';
+import { errorResponse } from '@/lib/http/respond';
 import { revalidateTrial } from '@/lib/http/revalidate';
 import { assertSameOrigin } from '@/lib/http/same-origin';
+import { trialDetailOf, trialIdOf } from '@/lib/http/trial-route';
 import { PHOTO_MAX_BYTES } from '@/lib/photos/process';
-import { getTrialDetail } from '@/lib/queries/trials';
 import { assertCanUploadPhoto, uploadPhoto } from '@/lib/services/photos';
 import { PhotoUploadQuerySchema } from '@/lib/validation/trials';
 
@@ -17,9 +16,7 @@ type Ctx = { params: Promise<{ id: string }> };
 /** Every photo of the trial (its own and its check-ins'). */
 export async function GET(_request: Request, { params }: Ctx) {
   try {
-    const id = parseId((await params).id);
-    const trial = id ? await getTrialDetail(id) : null;
-    if (!trial) throw new NotFoundError('No such trial.');
+    const trial = await trialDetailOf((await params).id);
     const photos = [...trial.photos, ...trial.checkIns.flatMap((c) => c.photos)].sort((a, b) => a.id - b.id);
     return NextResponse.json({ trialId: trial.id, photos }, { headers: { 'Cache-Control': 'no-store' } });
   } catch (err) {
@@ -37,8 +34,7 @@ export async function POST(request: Request, { params }: Ctx) {
   try {
     assertSameOrigin(request);
     assertDeclaredLength(request, PHOTO_MAX_BYTES);
-    const id = parseId((await params).id);
-    if (!id) throw new NotFoundError('No such trial.');
+    const id = trialIdOf((await params).id);
     const options = PhotoUploadQuerySchema.parse(Object.fromEntries(new URL(request.url).searchParams));
     const actor = await getActor();
     await assertCanUploadPhoto(actor, id);
