@@ -2,12 +2,6 @@ import { kgPerM2ToLbPerFt2 } from '@/lib/evidence/units';
 
 /** How a reader wants loads shown. */
 export type Units = 'metric' | 'imperial';
-export const UNITS = ['metric', 'imperial'] as const;
-
-/** Reads a stored units choice; anything unknown is metric. */
-export function parseUnits(value: string | null | undefined): Units {
-  return value === 'imperial' ? 'imperial' : 'metric';
-}
 
 /** A number to at most `digits` significant figures, without trailing zeros ("0.31", "12", "1.5"). */
 export function formatNumber(x: number, digits = 2): string {

@@ -4,7 +4,7 @@ import { DEFER_TO_LOCAL_RULES } from '@/components/layout/safety-note';
 import { SETTING_LABELS } from '@/components/layout/vocabulary';
 import { Table } from '@/components/ui/table';
 import { formatNumber } from '@/lib/format';
-import type { FeedstockPageDTO, RelatedFeedstockDTO, SettingSectionDTO, TrialRowDTO } from '@/lib/queries/feedstocks';
+import type { FeedstockPageDTO, RelatedFeedstockDTO, SettingSectionDTO, TrialTableRow } from '@/lib/queries/feedstocks';
 import { medianWords, OutcomeChart, OutcomeLegend, SurvivalChart } from './charts';
 import { ForEachUnits, Load, ReaderUnitsText } from './load';
 import {
@@ -112,7 +112,7 @@ export function PreparationAdvice({ settings }: { settings: SettingSectionDTO[] 
 }
 
 /** The linked trials: setting, preparation, load, status, outcome, region only. */
-export function TrialsTable({ trials, name }: { trials: TrialRowDTO[]; name: string }) {
+export function TrialsTable({ trials, name, caption }: { trials: TrialTableRow[]; name: string; caption?: string }) {
   if (!trials.length) {
     return (
       <p>
@@ -121,7 +121,7 @@ export function TrialsTable({ trials, name }: { trials: TrialRowDTO[]; name: str
     );
   }
   return (
-    <Table caption={`${trials.length} ${trials.length === 1 ? 'trial' : 'trials'} of ${name.toLowerCase()}`}>
+    <Table caption={caption ?? `${trials.length} ${trials.length === 1 ? 'trial' : 'trials'} of ${name.toLowerCase()}`}>
       <thead>
         <tr>
           <th scope="col">Trial</th>

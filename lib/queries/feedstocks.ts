@@ -263,7 +263,12 @@ export interface PreparationDTO {
 }
 
 /** One linked trial, as the page lists it (region only, nothing that places a person). */
-export interface TrialRowDTO {
+export interface TrialRowDTO extends TrialTableRow {
+  startDate: string;
+}
+
+/** What a table of trials shows (feedstock pages, proposals): setting, preparation, load, status, outcome, region only. */
+export interface TrialTableRow {
   id: number;
   setting: Setting;
   preparation: Preparation;
@@ -271,7 +276,6 @@ export interface TrialRowDTO {
   status: TrialStatus;
   outcome: Outcome | null;
   region: string;
-  startDate: string;
 }
 
 /** A feedstock of the same family. */

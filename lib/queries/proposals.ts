@@ -16,6 +16,7 @@ import {
 } from '@/db/models';
 import type { ProposedSetting } from '@/db/models/Proposal';
 import { tallyVotes, type Tally } from '@/lib/consensus';
+import type { TrialTableRow } from './feedstocks';
 import { can, type Actor } from '@/lib/policies';
 import { SETTING_PLURALS, VERDICT_LABELS } from '@/lib/vocabulary';
 
@@ -41,7 +42,7 @@ export interface ProposalDTO {
   current: { setting: string; verdict: string; ceilingKgM2: number | null }[];
   stale: boolean;
   rationale: string;
-  trials: { id: number; setting: string; preparation: string; surfaceLoadKgM2: number; status: string; outcome: string | null; region: string }[];
+  trials: TrialTableRow[];
   tally: Tally;
   votes: VoteDTO[];
   myVote: { agree: boolean; reason: string } | null;

@@ -178,6 +178,16 @@ describe('accounts and roles over HTTP', () => {
       expect(await VerificationToken.count({ where: { identifier: email } })).toBe(0);
     });
 
+    it('saving units on the account page also sets the units cookie the pages read in the browser', async () => {
+      const reader = await signedIn('reader');
+      const action = loadBuiltActions().get('app/account/actions.ts#saveUnits')!;
+      const call = await callServerAction(baseUrl, action, { units: 'imperial' }, { cookie: reader.cookie });
+      expect(call.result).toMatchObject({ ok: true });
+      await reader.user.reload();
+      expect(reader.user.units).toBe('imperial');
+      expect(parseSetCookies(call.setCookie).get('units')?.value).toBe('imperial');
+    });
+
     it('a server action called from another site does not run (Next.js checks Origin against Host)', async () => {
       const reader = await signedIn('reader');
       const action = loadBuiltActions().get('app/account/actions.ts#saveUnits')!;

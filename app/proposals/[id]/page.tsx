@@ -8,6 +8,7 @@ import { HideButton } from '@/components/proposal/hide-button';
 import { ResubmitButton } from '@/components/proposal/resubmit-button';
 import { VotePanel } from '@/components/proposal/vote-panel';
 import { Table } from '@/components/ui';
+import { TrialsTable } from '@/components/feedstock/sections';
 import { getActor } from '@/lib/auth/actor';
 import { getProposal } from '@/lib/queries/proposals';
 import { can, isTooNewToVote } from '@/lib/policies';
@@ -94,34 +95,7 @@ export default async function ProposalPage({ params }: Params) {
       <section aria-labelledby="trials-heading" className="space-y-3">
         <h2 id="trials-heading" className="text-2xl">Cited trials ({p.trials.length})</h2>
         {p.trials.length ? (
-          <Table caption="Trials this proposal rests on">
-            <thead>
-              <tr>
-                <th scope="col">Trial</th>
-                <th scope="col">Setting</th>
-                <th scope="col">Preparation</th>
-                <th scope="col">Load</th>
-                <th scope="col">Outcome</th>
-                <th scope="col">Region</th>
-              </tr>
-            </thead>
-            <tbody>
-              {p.trials.map((t) => (
-                <tr key={t.id}>
-                  <th scope="row">
-                    <Link href={`/trials/${t.id}`} className="underline underline-offset-4">
-                      #{t.id}
-                    </Link>
-                  </th>
-                  <td>{SETTING_LABELS[t.setting as Setting]}</td>
-                  <td>{t.preparation}</td>
-                  <td>{Math.round(t.surfaceLoadKgM2 * 100) / 100} kg/m²</td>
-                  <td>{t.outcome ?? t.status}</td>
-                  <td>{t.region}</td>
-                </tr>
-              ))}
-            </tbody>
-          </Table>
+          <TrialsTable trials={p.trials} name={p.feedstock.name} caption="Trials this proposal rests on" />
         ) : (
           <p>No trials cited.</p>
         )}

@@ -1,7 +1,6 @@
 import { revalidatePath } from 'next/cache';
 import { getActor } from '@/lib/auth/actor';
 import { parseId } from '@/lib/http/params';
-import { revalidateProposal } from '@/lib/http/revalidate';
 import { errorResponse, privateJson, readJson } from '@/lib/http/responses';
 import { assertSameOrigin } from '@/lib/http/same-origin';
 import { decideProposal } from '@/lib/services/proposals';
@@ -15,7 +14,6 @@ export async function POST(req: Request, ctx: { params: Promise<{ id: string }> 
     const id = parseId((await ctx.params).id);
     const result = await decideProposal(await getActor(), id, await readJson(req));
     revalidatePath('/', 'layout');
-    await revalidateProposal(id);
     return privateJson(result);
   } catch (err) {
     return errorResponse(err);
