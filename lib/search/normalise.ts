@@ -85,7 +85,7 @@ export function foldText(text: string): string {
 function rewritePhrases(folded: string): string {
   let s = ` ${folded} `;
   for (const [from, to] of PHRASE_SYNONYMS) {
-    s = s.split(` ${from} `).join(` ${to} `);
+    if (s.includes(` ${from} `)) s = s.split(` ${from} `).join(` ${to} `);
   }
   return s.trim();
 }

@@ -1,5 +1,6 @@
 import request from 'supertest';
 import { XMLParser } from 'fast-xml-parser';
+import { decodeHTML } from 'entities';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sequelize } from '@/db';
 import { Feedstock, FeedstockRedirect } from '@/db/models';
@@ -9,6 +10,7 @@ import { buildFeedstock, buildUser } from '../support/factories';
 import { openSession } from '../support/sessions';
 import { XSS_VECTORS, assertInertHtml } from '../support/xss';
 import { UNITS_SCRIPT } from '@/lib/units-cookie';
+import { asciiHtml } from '@/lib/http/ascii-html.mjs';
 
 /** Text as React writes it into HTML. */
 const html = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#x27;');
@@ -49,13 +51,33 @@ describe('feedstock pages over HTTP', () => {
 
   it('puts every load in both units into the one cached page; the browser shows the reader’s', async () => {
     // Orange peel's published bin ceiling is 1.5 kg/m² (demo scenario) = 0.307 lb/ft² (1 lb = 0.45359237 kg, 1 ft² = 0.09290304 m², NIST SP 811).
+    // Pages come from the page cache in ASCII form ("m&#xb2;"): decode character references before comparing text.
     const metric = await request(app.server).get('/feedstocks/orange-peel');
-    expect(metric.text).toContain('<span class="units-metric">1.5 kg/m²</span><span class="units-imperial">0.31 lb/ft²</span>');
+    expect(decodeHTML(metric.text)).toContain('<span class="units-metric">1.5 kg/m²</span><span class="units-imperial">0.31 lb/ft²</span>');
     // The units cookie is read in the browser (the root layout's script sets <html data-units>), never on the server.
     expect(metric.text).toMatch(/document\.documentElement\.dataset\.units=/);
     const imperial = await request(app.server).get('/feedstocks/orange-peel').set('Cookie', 'units=imperial');
     expect(imperial.headers['x-nextjs-cache']).toBe('HIT');
-    expect(imperial.text).toContain('0.31 lb/ft²');
+    expect(decodeHTML(imperial.text)).toContain('0.31 lb/ft²');
+  });
+
+  it('keeps a cached page in ASCII form: the same document, written without transcoding', async () => {
+    const f = await buildFeedstock({ name: 'Test café rinds — dried' });
+    made.push(f);
+    await f.update({ summary: 'Dried café rinds: 0.5–1.0 kg/m² a week, “slowly” 🪱.' });
+    const fresh = await request(app.server).get(`/feedstocks/${f.slug}`);
+    expect(fresh.headers['x-nextjs-cache']).toBe('MISS');
+    expect(fresh.text).toContain('Dried café rinds: 0.5–1.0 kg/m² a week, “slowly” 🪱.');
+    // Uncompressed, as the benchmark asks for it, so Content-Length is the page's own.
+    const cached = await request(app.server).get(`/feedstocks/${f.slug}`).set('Accept-Encoding', 'identity');
+    expect(cached.headers['x-nextjs-cache']).toBe('HIT');
+    const bytes = Buffer.from(cached.text, 'utf8');
+    expect(bytes.every((b) => b < 0x80)).toBe(true);
+    expect(Number(cached.headers['content-length'])).toBe(bytes.length);
+    // The cache handler (lib/http/page-cache-handler.mjs) stores exactly the render in escaped form; that the escaped
+    // form parses to the same document is checked in Chromium by tests/lib/http/ascii-html.test.ts.
+    expect(cached.text).toBe(asciiHtml(fresh.text));
+    expect(decodeHTML(cached.text)).toContain('Dried café rinds: 0.5–1.0 kg/m² a week, “slowly” 🪱.');
   });
 
   it('serves the feedstock page from the page cache and drops it when an editor publishes', async () => {
