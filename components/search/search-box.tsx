@@ -106,6 +106,9 @@ export function SearchBox({ variant, id, label, labelAsHeading = false, defaultV
     ? [...suggestions.map((hit) => ({ kind: 'hit' as const, hit })), { kind: 'request' as const }]
     : results.map((hit) => ({ kind: 'hit' as const, hit }));
   const expanded = open && ready && !!current;
+  // Results answer the question they were asked for. While a newer question is being typed or loaded they stay on
+  // screen, dimmed, but the keyboard cannot choose one and Enter asks the results page for the new question instead.
+  const stale = !!current && current.query !== query.trim();
 
   // The highlighted option belongs to one set of results: new results start with nothing highlighted.
   const dataKey = current ? `${current.query}|${results.length}|${suggestions.length}` : '';
@@ -138,14 +141,14 @@ export function SearchBox({ variant, id, label, labelAsHeading = false, defaultV
     if (e.key === 'ArrowDown') {
       e.preventDefault();
       if (!open) setOpen(true);
-      if (options.length) setActive((a) => (a + 1) % options.length);
+      if (options.length && !stale) setActive((a) => (a + 1) % options.length);
     } else if (e.key === 'ArrowUp') {
       e.preventDefault();
-      if (options.length) setActive((a) => (a <= 0 ? options.length - 1 : a - 1));
-    } else if (e.key === 'Home' && expanded && active >= 0) {
+      if (options.length && !stale) setActive((a) => (a <= 0 ? options.length - 1 : a - 1));
+    } else if (e.key === 'Home' && expanded && active >= 0 && !stale) {
       e.preventDefault();
       setActive(0);
-    } else if (e.key === 'End' && expanded && active >= 0) {
+    } else if (e.key === 'End' && expanded && active >= 0 && !stale) {
       e.preventDefault();
       setActive(options.length - 1);
     } else if (e.key === 'Escape') {
@@ -158,10 +161,10 @@ export function SearchBox({ variant, id, label, labelAsHeading = false, defaultV
         setQuery('');
       }
     } else if (e.key === 'Enter') {
-      if (expanded && active >= 0) {
+      if (expanded && active >= 0 && !stale) {
         e.preventDefault();
         go(active);
-      } else if (results.length && debounced === query.trim()) {
+      } else if (results.length && !stale) {
         // Enter on a typed question opens the best match.
         e.preventDefault();
         go(0);
@@ -172,7 +175,7 @@ export function SearchBox({ variant, id, label, labelAsHeading = false, defaultV
 
   const status = !ready
     ? ''
-    : isLoading && !current
+    : (isLoading && !current) || stale
       ? 'Searching…'
       : noMatch
         ? `No feedstock matches. ${suggestions.length ? `${suggestions.length} near ${suggestions.length === 1 ? 'miss' : 'misses'}.` : ''}`
@@ -211,7 +214,7 @@ export function SearchBox({ variant, id, label, labelAsHeading = false, defaultV
           aria-autocomplete="list"
           aria-expanded={expanded}
           aria-controls={listId}
-          aria-activedescendant={expanded && active >= 0 ? optionId(active) : undefined}
+          aria-activedescendant={expanded && active >= 0 && !stale ? optionId(active) : undefined}
           aria-describedby={statusId}
           value={query}
           onChange={(e) => {
@@ -259,7 +262,9 @@ export function SearchBox({ variant, id, label, labelAsHeading = false, defaultV
           role="listbox"
           aria-labelledby={labelId}
           hidden={!expanded}
+          aria-busy={stale}
           className={cx(
+            stale && 'opacity-60',
             'absolute top-full z-50 mt-1 max-h-[70vh] list-none overflow-y-auto rounded-lg border border-line-strong bg-surface-raised p-1 shadow-lg',
             // The header box sits at the right edge: its list opens leftwards and never past the screen.
             isHero ? 'inset-x-0' : 'right-0 w-[min(24rem,calc(100vw-2rem))]',
@@ -275,13 +280,13 @@ export function SearchBox({ variant, id, label, labelAsHeading = false, defaultV
               key={o.kind === 'hit' ? o.hit.slug : 'request'}
               id={optionId(i)}
               role="option"
-              aria-selected={i === active}
+              aria-selected={i === active && !stale}
               onMouseDown={(e) => e.preventDefault()}
               onClick={() => go(i)}
               onMouseMove={() => setActive(i)}
               className={cx(
                 'cursor-pointer rounded-md px-3 py-2',
-                i === active ? 'bg-accent-soft outline-2 outline-accent' : 'hover:bg-surface-sunken',
+                i === active && !stale ? 'bg-accent-soft outline-2 outline-accent' : 'hover:bg-surface-sunken',
               )}
             >
               {o.kind === 'hit' ? (

@@ -89,6 +89,29 @@ describe('wiki pages in Chromium', () => {
     await context.close();
   }, 60_000);
 
+  it('never opens the previous question\'s answer: while a new question loads, Enter asks the results page', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    await open(page, `${app.baseUrl}/`);
+    const input = page.getByRole('combobox', { name: 'Can worms eat …?' });
+    await input.fill('bread');
+    const option = page.locator('#search-hero-q-list [role=option]').first();
+    await expect.poll(() => option.innerText(), { timeout: 10_000 }).toContain('Bread');
+    // Hold the next answer back, so the first question's results are still on screen while the second is asked.
+    await page.route(/\/api\/search\?q=garlic/, async (route) => {
+      await new Promise((r) => setTimeout(r, 2_000));
+      await route.continue().catch(() => {});
+    });
+    await input.fill('garlic');
+    await page.keyboard.press('ArrowDown');
+    expect(await input.getAttribute('aria-activedescendant')).toBeNull();
+    expect(await page.locator('#search-hero-q-list').getAttribute('aria-busy')).toBe('true');
+    await page.keyboard.press('Enter');
+    await page.waitForURL(/\/search\?q=garlic$/);
+    expect(page.url()).not.toContain('/feedstocks/bread');
+    await context.close();
+  }, 60_000);
+
   it('offers to request a feedstock nobody has, from the header search on a phone', async () => {
     const context = await browser.newContext({ viewport: { width: 375, height: 800 } });
     const page = await context.newPage();
