@@ -13,7 +13,8 @@
  * starts `next start` on another free port of 127.0.0.1 against it, runs
  * autocannon, then stops both and removes the data. Settings (environment):
  *   BENCH_CONNECTIONS (20), BENCH_DURATION seconds per run (6), BENCH_WARMUP
- *   seconds of unrecorded load before each run (2),
+ *   seconds of unrecorded load before each run (2), BENCH_CPU_PROFILE a
+ *   directory for the server's V8 CPU profile,
  *   BENCH_FEEDSTOCKS total feedstocks (2000).
  */
 import { spawn, type ChildProcess } from 'node:child_process';
@@ -180,7 +181,10 @@ async function generateFeedstocks(total: number) {
 
 function startNext(port: number, env: NodeJS.ProcessEnv): ChildProcess {
   // Own process group so the whole `next start` tree stops together.
-  const child = spawn(path.join(ROOT, 'node_modules', '.bin', 'next'), ['start', '-H', '127.0.0.1', '-p', String(port)], {
+  // BENCH_CPU_PROFILE=<dir>: the server writes a V8 CPU profile there when it stops (open it in Chrome DevTools).
+  const prof = process.env.BENCH_CPU_PROFILE;
+  const args = ['start', '-H', '127.0.0.1', '-p', String(port)];
+  const child = spawn(process.execPath, [...(prof ? ['--cpu-prof', `--cpu-prof-dir=${path.resolve(prof)}`] : []), path.join(ROOT, 'node_modules', 'next', 'dist', 'bin', 'next'), ...args], {
     cwd: ROOT,
     env,
     detached: true,
