@@ -107,7 +107,7 @@ export class FeedstockSearchIndex {
   private readonly grams = new Map<string, number[]>();
   private readonly cache = new Map<string, SearchOutcome>();
   /** Per-document counter reused by `candidates` (always left at zero). */
-  private sharedScratch: Uint16Array | null = null;
+  private readonly shared: Uint16Array;
   private static readonly CACHE_SIZE = 500;
 
   constructor(readonly docs: readonly SearchDocument[]) {
@@ -118,6 +118,7 @@ export class FeedstockSearchIndex {
       family: d.family ? indexText(d.family) : '',
       category: indexText(d.categoryLabel),
     }));
+    this.shared = new Uint16Array(this.records.length);
     this.words = this.records.map((r) => ({
       all: wordsOf([r.name, ...r.aliases, r.family, r.category].join(' ')),
       name: wordsOf(r.name),
@@ -168,7 +169,7 @@ export class FeedstockSearchIndex {
   private candidates(terms: string[], cap: number): IndexRecord[] {
     // Counters in typed arrays, not maps: common letter pairs ("e ", " s") list most of the index.
     const n = this.records.length;
-    const shared = (this.sharedScratch ??= new Uint16Array(n));
+    const shared = this.shared;
     const score = new Float64Array(n);
     const touched: number[] = [];
     const hit: number[] = [];

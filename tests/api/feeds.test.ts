@@ -5,7 +5,7 @@ import { Feedstock, FeedstockRedirect, FeedstockRevision, PublishedVerdict, User
 import { createProposal, decideProposal } from '@/lib/services/proposals';
 import { createTrial } from '@/lib/services/trials';
 import { parseAtom, validateAtom } from '../support/atom';
-import { buildFeedstock, buildUser } from '../support/factories';
+import { buildFeedstock, buildUser, trialInput } from '../support/factories';
 import { actorOf, cleanUpMailFixtures } from '../support/mail';
 import { startNextHandler } from '../support/next-app';
 
@@ -31,18 +31,18 @@ describe('Atom feeds (RFC 4287)', () => {
     f = await buildFeedstock({ name: 'Feed test peel & pith' });
     await PublishedVerdict.create({ feedstockId: f.id, setting: 'bed', verdict: 'avoid', ceilingKgM2: null, cautions: [], proposalId: null, publishedAt: new Date() });
     // One of each event: a trial linked, a proposal opened and decided, a page edit.
-    const trial = await createTrial(actorOf(author), {
-      feedstockId: f.id,
-      setting: 'bed',
-      preparation: 'chopped',
-      provenance: 'home-grown',
-      surfaceArea: { amount: 1, unit: 'm2' },
-      species: 'eisenia-fetida',
-      dose: { amount: 3, unit: 'kg' },
-      region: 'Hollow Creek county',
-      startDate: '2026-01-10',
-      notes: 'Next to the shed at 12 Orchard Lane.',
-    });
+    const trial = await createTrial(
+      actorOf(author),
+      trialInput(f.id, {
+        setting: 'bed',
+        preparation: 'chopped',
+        surfaceArea: { amount: 1, unit: 'm2' },
+        dose: { amount: 3, unit: 'kg' },
+        region: 'Hollow Creek county',
+        startDate: '2026-01-10',
+        notes: 'Next to the shed at 12 Orchard Lane.',
+      }),
+    );
     trialId = trial.id;
     ({ id: proposalId } = await createProposal(actorOf(author), {
       feedstockId: f.id,

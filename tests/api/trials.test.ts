@@ -7,6 +7,7 @@ import { sequelize } from '@/db';
 import { CheckIn, Feedstock, Photo, Trial, User } from '@/db/models';
 import { CHECK_IN_EXPORT_COLUMNS, TRIAL_EXPORT_COLUMNS } from '@/lib/queries/trials';
 import { contributorLabel } from '@/lib/trials/contributor';
+import { trialInput } from '../support/factories';
 import { startNextHandler } from '../support/next-app';
 import { sendRaw } from '../support/raw-http';
 
@@ -21,11 +22,6 @@ let port: number;
 let origin: string;
 let demoTrial: Trial;
 
-const validTrial = (feedstockId: number) => ({
-  feedstockId, setting: 'bin', preparation: 'raw', provenance: 'home-grown',
-  surfaceArea: { amount: 0.25, unit: 'm2' }, species: 'eisenia-fetida', dose: { amount: 1, unit: 'kg' },
-  region: 'Test valley', startDate: '2026-10-01',
-});
 
 beforeAll(async () => {
   app = await startNextHandler();
@@ -86,10 +82,10 @@ describe('writes through the route handlers', () => {
   it('answers 400 with field messages for bad input and stores nothing (validated before the session; the schema is public)', async () => {
     const before = await Trial.count();
     const feedstock = (await Feedstock.findOne())!;
-    const negative = await request(app.server).post('/api/trials').set('Origin', origin).send({ ...validTrial(feedstock.id), dose: { amount: -1, unit: 'kg' } });
+    const negative = await request(app.server).post('/api/trials').set('Origin', origin).send({ ...trialInput(feedstock.id), dose: { amount: -1, unit: 'kg' } });
     expect(negative.status).toBe(400);
     expect(negative.body.error).toMatchObject({ code: 'invalid_input', fieldErrors: { 'dose.amount': ['Dose must be more than zero.'] } });
-    const zeroArea = await request(app.server).post('/api/trials').set('Origin', origin).send({ ...validTrial(feedstock.id), surfaceArea: { amount: 0, unit: 'm2' } });
+    const zeroArea = await request(app.server).post('/api/trials').set('Origin', origin).send({ ...trialInput(feedstock.id), surfaceArea: { amount: 0, unit: 'm2' } });
     expect(zeroArea.status).toBe(400);
     expect(zeroArea.body.error.fieldErrors['surfaceArea.amount']).toEqual(['Surface area must be more than zero.']);
     const notJson = await request(app.server).post('/api/trials').set('Origin', origin).set('Content-Type', 'application/json').send('{nope');
@@ -110,7 +106,7 @@ describe('writes through the route handlers', () => {
   it('answers 401 to a visitor with valid input, and stores nothing', async () => {
     const before = await Trial.count();
     const feedstock = (await Feedstock.findOne())!;
-    expect((await request(app.server).post('/api/trials').set('Origin', origin).send(validTrial(feedstock.id))).status).toBe(401);
+    expect((await request(app.server).post('/api/trials').set('Origin', origin).send(trialInput(feedstock.id))).status).toBe(401);
     expect((await request(app.server).post(`/api/trials/${demoTrial.id}/check-ins`).send({ observedOn: '2026-11-01', wormActivity: 'many', shareRemainingPct: 20 })).status).toBe(401);
     expect((await request(app.server).post(`/api/trials/${demoTrial.id}/close`).send({})).status).toBe(401);
     expect((await request(app.server).patch(`/api/trials/${demoTrial.id}`).send({ version: demoTrial.version, notes: 'x' })).status).toBe(401);
@@ -122,7 +118,7 @@ describe('writes through the route handlers', () => {
   it('refuses writes from a foreign Origin with 403', async () => {
     const feedstock = (await Feedstock.findOne())!;
     const evil = 'https://evil.example';
-    expect((await request(app.server).post('/api/trials').set('Origin', evil).send(validTrial(feedstock.id))).status).toBe(403);
+    expect((await request(app.server).post('/api/trials').set('Origin', evil).send(trialInput(feedstock.id))).status).toBe(403);
     expect((await request(app.server).post(`/api/trials/${demoTrial.id}/check-ins`).set('Origin', evil).send({})).status).toBe(403);
     expect((await request(app.server).post(`/api/trials/${demoTrial.id}/close`).set('Origin', evil).send({})).status).toBe(403);
     expect((await request(app.server).patch(`/api/trials/${demoTrial.id}`).set('Origin', evil).send({})).status).toBe(403);

@@ -8,7 +8,7 @@ import { purgeUnconfirmedSubscriptions } from '@/lib/services/subscriptions';
 import { createProposal, decideProposal } from '@/lib/services/proposals';
 import { reviewPageEdit, submitPageEdit } from '@/lib/services/revisions';
 import { createTrial } from '@/lib/services/trials';
-import { buildFeedstock, buildUser } from '../support/factories';
+import { buildFeedstock, buildUser, trialInput } from '../support/factories';
 import {
   actorOf,
   buildSubscription,
@@ -258,18 +258,15 @@ describe('update mail through the outbox', () => {
   it('tells followers of a newly linked trial in the same transaction as the trial, without its region or notes', async () => {
     const f = await newFeedstock('Apple cores test');
     const s = await follow(f, { email: testEmail('trials') });
-    const input = {
-      feedstockId: f.id,
+    const input = trialInput(f.id, {
       setting: 'bed',
       preparation: 'chopped',
-      provenance: 'home-grown',
       surfaceArea: { amount: 2, unit: 'm2' },
-      species: 'eisenia-fetida',
       dose: { amount: 6, unit: 'kg' },
       region: 'Lower Marsh district',
       startDate: '2026-01-10',
       notes: 'Behind 4 Mill Road.',
-    };
+    });
     // A refused trial (bad input) stores nothing, outbox included.
     await expect(createTrial(actorOf(author), { ...input, dose: { amount: -1, unit: 'kg' } })).rejects.toThrow();
     expect(await OutboxMessage.count({ where: { recipient: s.email } })).toBe(0);

@@ -36,6 +36,25 @@ export async function buildFeedstock(attrs: Partial<{ slug: string; name: string
   });
 }
 
+/**
+ * A valid trial as the trial service and POST /api/trials take it: 1 kg of raw
+ * feedstock on 0.25 m² of an enclosed bin (4 kg/m²). Override what a test is about.
+ */
+export function trialInput(feedstockId: number, overrides: Record<string, unknown> = {}) {
+  return {
+    feedstockId,
+    setting: 'bin',
+    preparation: 'raw',
+    provenance: 'home-grown',
+    surfaceArea: { amount: 0.25, unit: 'm2' },
+    species: 'eisenia-fetida',
+    dose: { amount: 1, unit: 'kg' },
+    region: 'Test valley',
+    startDate: '2026-10-01',
+    ...overrides,
+  };
+}
+
 /** An open proposal by `author` on `feedstock`. */
 export async function buildProposal(feedstock: Feedstock, author: User) {
   return Proposal.create({
