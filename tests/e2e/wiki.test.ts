@@ -98,6 +98,8 @@ describe('wiki pages in Chromium', () => {
     const option = page.locator('#search-hero-q-list [role=option]').first();
     await expect.poll(() => option.innerText(), { timeout: 10_000 }).toContain('Bread');
     // Hold the next answer back, so the first question's results are still on screen while the second is asked.
+    // Expected behaviour from WAI-ARIA 1.2 (aria-busy: the list is being updated; aria-activedescendant names the
+    // option the keyboard is on) and the ARIA Authoring Practices combobox pattern (Enter accepts the focused option).
     await page.route(/\/api\/search\?q=garlic/, async (route) => {
       await new Promise((r) => setTimeout(r, 2_000));
       await route.continue().catch(() => {});
