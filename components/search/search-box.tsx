@@ -264,7 +264,6 @@ export function SearchBox({ variant, id, label, labelAsHeading = false, defaultV
           hidden={!expanded}
           aria-busy={stale}
           className={cx(
-            stale && 'opacity-60',
             'absolute top-full z-50 mt-1 max-h-[70vh] list-none overflow-y-auto rounded-lg border border-line-strong bg-surface-raised p-1 shadow-lg',
             // The header box sits at the right edge: its list opens leftwards and never past the screen.
             isHero ? 'inset-x-0' : 'right-0 w-[min(24rem,calc(100vw-2rem))]',
@@ -286,6 +285,8 @@ export function SearchBox({ variant, id, label, labelAsHeading = false, defaultV
               onMouseMove={() => setActive(i)}
               className={cx(
                 'cursor-pointer rounded-md px-3 py-2',
+                // Dim the options, not the list: the list's own background must stay opaque over the page.
+                stale && 'opacity-60',
                 i === active && !stale ? 'bg-accent-soft outline-2 outline-accent' : 'hover:bg-surface-sunken',
               )}
             >
